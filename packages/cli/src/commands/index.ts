@@ -1,0 +1,10 @@
+/**
+ * The registry of subcommands. Each module exports `register(program)` that adds one command.
+ * Add a line here when you add a command.
+ */
+import type { Command } from "commander";
+
+/** Adds one subcommand to the program. */
+export type RegisterCommand = (program: Command) => void;
+
+export const COMMANDS: readonly RegisterCommand[] = [];

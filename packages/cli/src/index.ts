@@ -1,0 +1,2 @@
+export { buildProgram, run } from "./main.js";
+export { VERSION } from "./version.js";

@@ -1,1 +1,1 @@
-export {};
+export * from "./halos/index.js";

@@ -1,3 +1,12 @@
 export type { SkyMap, FlatGeometry } from "./types.js";
 export type { Wcs, Projection, RadeSys } from "./wcs/types.js";
 export type { Rfft2Plan, SpectrumLayout } from "./fourier/types.js";
+export * from "./fits/index.js";
+export * from "./io/index.js";
+export * from "./wcs/index.js";
+export * from "./geometry/index.js";
+export * from "./reproject/index.js";
+export * from "./beams/index.js";
+export * from "./manifest/index.js";
+export * from "./catalog/index.js";
+export * from "./fourier/index.js";

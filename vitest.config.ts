@@ -1,6 +1,6 @@
 import { defineConfig } from "vitest/config";
 
-const pkgs = ["core", "maps", "spectra", "clusters", "estimators", "simulate", "cli"];
+const pkgs = ["core", "maps", "spectra", "clusters", "estimators", "simulate", "plot", "cli"];
 
 export default defineConfig({
   test: {

@@ -1,0 +1,12 @@
+export type { Figure, AxisSpec } from "./figure.js";
+export { xyChart, histogramChart, histogramCounts } from "./charts.js";
+export type { XYSeries, XYChartOptions, HistogramOptions } from "./charts.js";
+export { mapChart } from "./maps.js";
+export type { MapChartOptions, MapMarker } from "./maps.js";
+export { viridis, viridisCss, colourLimits, mapToPng, pngDataUri } from "./colormap.js";
+export { niceTicks, linearScale, logScale, formatTick, extent } from "./scale.js";
+export type { Scale } from "./scale.js";
+export { svgToPng } from "./png.js";
+export { renderHtmlReport } from "./html.js";
+export type { ReportBlock } from "./html.js";
+export { escapeXml } from "./svg.js";

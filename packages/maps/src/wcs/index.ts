@@ -1,1 +1,14 @@
-export {};
+export { wcsFromHeader } from "./header.js";
+export type { HeaderLike } from "./header.js";
+export {
+  pixelToWorld,
+  worldToPixel,
+  pixelToWorldArray,
+  worldToPixelArray,
+  planWcs,
+  pixelToWorldPlanned,
+  worldToPixelPlanned,
+} from "./transform.js";
+export type { WcsPlan, WorldDeg, PixelPos } from "./transform.js";
+export { wcsToHeaderCards, shiftWcs } from "./cards.js";
+export type { WcsCard } from "./cards.js";

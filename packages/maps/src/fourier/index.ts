@@ -1,1 +1,11 @@
-export {};
+export type { Rfft2Plan, SpectrumLayout } from "./types.js";
+export { getRfft2Plan } from "./rfft2-f64.js";
+export { ellOfModes, kxKyOfModes, multiplyModes, multiplyModesComplex } from "./modes.js";
+export { crossPowerBinned, powerSpectrum2d } from "./power.js";
+export type { BinnedPower } from "./power.js";
+export { gaussianRealisation, evaluateCl } from "./realisation.js";
+export type { ClSpec } from "./realisation.js";
+export { convolveMap } from "./convolve.js";
+export { apodisationWindow, apodiseMask, taper1d, windowMoment, windowPowerFraction } from "./apodisation.js";
+export type { WindowKind } from "./apodisation.js";
+export { distanceToRemoved } from "./distance-transform.js";

@@ -1,0 +1,10 @@
+export { tabulateProfile, profileAt, gaussianShape } from "./profile.js";
+export type { ProfileShape, ProfileTable } from "./profile.js";
+export { buildModeGrid } from "./modeGrid.js";
+export type { ModeGrid } from "./modeGrid.js";
+export { buildFilterBank } from "./bank.js";
+export type { FilterBank, FilterBankInputs, BeamTransfer } from "./bank.js";
+export { fitAtPosition, createFitScratch, sedNodeTable } from "./fit.js";
+export type { ComponentFit, FitScratch } from "./fit.js";
+export { combineWhitened, prepareSedFilter, filterSigma, filteredMap } from "./filteredMap.js";
+export type { SedFilter } from "./filteredMap.js";

@@ -1,0 +1,6 @@
+export { apertureSum, checkApertureSpec, pixelAreaArcmin2 } from "./photometry.js";
+export type { ApertureSpec, ApertureResult, ApertureFlag } from "./photometry.js";
+export { apertureKernel, apertureVarianceFromPower, interpolatePower } from "./variance.js";
+export type { PowerTable } from "./variance.js";
+export { randomApertureScatter } from "./random.js";
+export type { RandomApertureOptions, RandomApertureScatter } from "./random.js";

@@ -1,4 +1,4 @@
-export type { Rfft2Plan, SpectrumLayout } from "./types.js";
+export type { Rfft2Plan, Rfft2PlanF32, SpectrumLayout } from "./types.js";
 export { getRfft2Plan } from "./rfft2-f64.js";
 export { ellOfModes, kxKyOfModes, multiplyModes, multiplyModesComplex } from "./modes.js";
 export { crossPowerBinned, powerSpectrum2d } from "./power.js";
@@ -9,3 +9,4 @@ export { convolveMap } from "./convolve.js";
 export { apodisationWindow, apodiseMask, taper1d, windowMoment, windowPowerFraction } from "./apodisation.js";
 export type { WindowKind } from "./apodisation.js";
 export { distanceToRemoved } from "./distance-transform.js";
+export { createRfft2PlanFloat32, float32SizeProblem } from "./rfft2-f32.js";

@@ -42,3 +42,16 @@ export interface Rfft2Plan {
   /** Inverse transform (normalisation above). `spectrum` is not modified; `map` receives nx·ny values. */
   inverse(spectrum: Float64Array, map: Float64Array): void;
 }
+
+/** A float32 plan for one (nx, ny): same contract as {@link Rfft2Plan} with Float32Array buffers. Call `dispose()` to free its wasm memory. */
+export interface Rfft2PlanF32 {
+  readonly nx: number;
+  readonly ny: number;
+  readonly layout: SpectrumLayout;
+  /** Forward transform (normalisation of types.ts); `map` (nx·ny) is not modified. */
+  forward(map: Float32Array, spectrum: Float32Array): void;
+  /** Inverse transform (normalisation of types.ts); `spectrum` is not modified. */
+  inverse(spectrum: Float32Array, map: Float32Array): void;
+  /** Free the plan's wasm buffers; the plan must not be used afterwards. */
+  dispose(): void;
+}

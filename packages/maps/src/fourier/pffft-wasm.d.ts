@@ -1,0 +1,14 @@
+/** The parts of the emscripten module `@echogarden/pffft-wasm` (0.4.2) that the float32 plan uses (the package ships no types). */
+declare module "@echogarden/pffft-wasm/simd" {
+  export interface PffftModule {
+    HEAPF32: Float32Array;
+    _pffft_new_setup(n: number, transform: number): number;
+    _pffft_destroy_setup(setup: number): void;
+    _pffft_transform_ordered(setup: number, input: number, output: number, work: number, direction: number): void;
+    _pffft_aligned_malloc(bytes: number): number;
+    _pffft_aligned_free(ptr: number): void;
+    _pffft_simd_size(): number;
+  }
+  const factory: (moduleArg?: Record<string, unknown>) => Promise<PffftModule>;
+  export default factory;
+}

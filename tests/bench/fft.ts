@@ -1,0 +1,118 @@
+/**
+ * Benchmark of umbra's real 2-D FFT round trip (forward + inverse), float64 and float32, at the
+ * shapes of tests/bench/fft_numpy.py, plus the peak memory of six 4096² bands transformed in turn.
+ *
+ * Run: `npx tsx tests/bench/fft.ts [--quick] [--memory]` (prints JSON rows), or import
+ * `benchFft` from another script. Compare with `python3 tests/bench/fft_numpy.py` run on the same
+ * quiet machine. Timings are medians over several runs after one warm-up.
+ */
+import { pathToFileURL } from "node:url";
+import { createRfft2PlanFloat32, getRfft2Plan } from "../../packages/maps/src/fourier/index.js";
+
+/** One benchmark result. */
+export interface FftBenchRow {
+  backend: "f64" | "f32";
+  nx: number;
+  ny: number;
+  roundTripSeconds: number;
+  runs: number;
+}
+
+const SHAPES: [number, number][] = [
+  [1024, 1024],
+  [2048, 2048],
+  [4096, 4096],
+  [900, 600], // nx, ny
+];
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const n = s.length;
+  return n % 2 === 1 ? (s[(n - 1) / 2] as number) : 0.5 * ((s[n / 2 - 1] as number) + (s[n / 2] as number));
+}
+
+function fillRandom(a: Float64Array | Float32Array, seed: number): void {
+  let s = seed >>> 0;
+  for (let i = 0; i < a.length; i++) {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    a[i] = s / 4294967296 - 0.5;
+  }
+}
+
+function runsFor(nx: number, ny: number, quick: boolean): number {
+  if (quick) return 3;
+  return nx * ny >= 4096 * 4096 ? 5 : 11;
+}
+
+/** Time the float64 and float32 round trips; `quick` skips 4096² and uses 3 runs. */
+export async function benchFft(options: { quick?: boolean } = {}): Promise<FftBenchRow[]> {
+  const quick = options.quick ?? false;
+  const rows: FftBenchRow[] = [];
+  for (const [nx, ny] of SHAPES) {
+    if (quick && nx * ny > 2048 * 2048) continue;
+    const runs = runsFor(nx, ny, quick);
+    {
+      const plan = getRfft2Plan(nx, ny);
+      const map = new Float64Array(nx * ny);
+      fillRandom(map, 1);
+      const spec = new Float64Array(plan.layout.spectrumLength);
+      const back = new Float64Array(nx * ny);
+      plan.forward(map, spec);
+      plan.inverse(spec, back);
+      const times: number[] = [];
+      for (let r = 0; r < runs; r++) {
+        const t0 = performance.now();
+        plan.forward(map, spec);
+        plan.inverse(spec, back);
+        times.push((performance.now() - t0) / 1000);
+      }
+      rows.push({ backend: "f64", nx, ny, roundTripSeconds: median(times), runs });
+    }
+    try {
+      const plan = await createRfft2PlanFloat32(nx, ny);
+      const map = new Float32Array(nx * ny);
+      fillRandom(map, 1);
+      const spec = new Float32Array(plan.layout.spectrumLength);
+      const back = new Float32Array(nx * ny);
+      plan.forward(map, spec);
+      plan.inverse(spec, back);
+      const times: number[] = [];
+      for (let r = 0; r < runs; r++) {
+        const t0 = performance.now();
+        plan.forward(map, spec);
+        plan.inverse(spec, back);
+        times.push((performance.now() - t0) / 1000);
+      }
+      plan.dispose();
+      rows.push({ backend: "f32", nx, ny, roundTripSeconds: median(times), runs });
+    } catch {
+      // the float32 path does not take this shape (pffft size rules): no row
+    }
+  }
+  return rows;
+}
+
+/** Peak RSS (MB) of six 4096² float64 bands each transformed forward and back in turn, with one spectrum buffer and one plan. */
+export function benchSixBandMemory(n = 4096): { peakRssMB: number; mapsMB: number } {
+  const plan = getRfft2Plan(n, n);
+  const bands: Float64Array[] = [];
+  for (let b = 0; b < 6; b++) {
+    const m = new Float64Array(n * n);
+    fillRandom(m, b + 1);
+    bands.push(m);
+  }
+  const spec = new Float64Array(plan.layout.spectrumLength);
+  for (const m of bands) {
+    plan.forward(m, spec);
+    plan.inverse(spec, m);
+  }
+  return { peakRssMB: process.resourceUsage().maxRSS / 1024, mapsMB: (6 * n * n * 8) / 2 ** 20 };
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const quick = process.argv.includes("--quick");
+  const rows = await benchFft({ quick });
+  const out: Record<string, unknown> = { rows };
+  if (process.argv.includes("--memory")) out["sixBands4096"] = benchSixBandMemory();
+  console.log(JSON.stringify(out, null, 1));
+}

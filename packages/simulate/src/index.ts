@@ -1,1 +1,3 @@
-export {};
+export * from "./cmb/index.js";
+export * from "./scenario/index.js";
+export * from "./regression/index.js";

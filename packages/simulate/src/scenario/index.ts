@@ -1,0 +1,3 @@
+export { scenarioSchema } from "./schema.js";
+export type { Scenario, ScenarioBand, ScenarioClusterRow } from "./schema.js";
+export { parseScenario } from "./parse.js";

@@ -54,3 +54,5 @@ export { componentSpectrum, componentResponse, componentEffectiveFrequency } fro
 export type { ResponseOptions } from "./components.js";
 export { mixingMatrix, mixingColumn } from "./mixing.js";
 export type { MixingMatrix } from "./mixing.js";
+export { createTszBandResponse } from "./tszBand.js";
+export type { TszBandResponse } from "./tszBand.js";

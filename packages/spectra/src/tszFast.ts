@@ -24,6 +24,16 @@ export interface FastRelativisticTsz {
    * single kTe for all frequencies); writes into and returns `out`.
    */
   responseMany(frequencyGHz: Float64Array, kTeKeV: Float64Array | number, out?: Float64Array): Float64Array;
+  /**
+   * The Chebyshev coefficients in θ (length {@link FastRelativisticTsz.nTheta}) of the correction
+   * (Y − Y0)/θ interpolated to x ≤ xMax, written into `out`. Linear in the table, so band averages
+   * of the correction are weighted sums of these vectors.
+   */
+  correctionCoefficients(x: number, out?: Float64Array): Float64Array;
+  /** Σ c_k T_k(2θ/θmax − 1) for a coefficient vector from {@link FastRelativisticTsz.correctionCoefficients}; kTe ≤ kTeMaxKeV. */
+  evaluateCorrection(coefficients: Float64Array, kTeKeV: number): number;
+  /** Chebyshev terms per x node. */
+  readonly nTheta: number;
   /** Largest x covered by the table (beyond it the exact integral is used). */
   readonly xMax: number;
   /** Largest kTe [keV] covered by the table (beyond it the exact integral is used). */
@@ -81,7 +91,47 @@ export function createFastRelativisticTsz(table: RelativisticTszTable = TSZ_TABL
     return tszShape(x) + theta * q;
   }
 
+  function lagrange(x: number): [number, number, number, number, number] {
+    const f = x * invDx;
+    let i = Math.floor(f);
+    if (i < 1) i = 1;
+    else if (i > nx - 3) i = nx - 3;
+    const t = f - i;
+    const tm1 = t + 1;
+    const tm2 = t - 1;
+    const tm3 = t - 2;
+    return [i, (-t * tm2 * tm3) / 6, (tm1 * tm2 * tm3) / 2, (-tm1 * t * tm3) / 2, (tm1 * t * tm2) / 6];
+  }
+
+  function correctionCoefficients(x: number, out: Float64Array = new Float64Array(nTheta)): Float64Array {
+    if (!(x >= 0 && x <= xMax)) throw new RangeError(`x = ${x} is outside the fast tSZ table [0, ${xMax}]`);
+    const [i, w0, w1, w2, w3] = lagrange(x);
+    for (let k = 0; k < nTheta; k++) {
+      out[k] =
+        w0 * (coeffs[(i - 1) * nTheta + k] as number) +
+        w1 * (coeffs[i * nTheta + k] as number) +
+        w2 * (coeffs[(i + 1) * nTheta + k] as number) +
+        w3 * (coeffs[(i + 2) * nTheta + k] as number);
+    }
+    return out;
+  }
+
+  function evaluateCorrection(c: Float64Array, kTeKeV: number): number {
+    const t2 = 2 * ((2 * thetaFromKeV(kTeKeV)) / thetaMax - 1);
+    let b1 = 0;
+    let b2 = 0;
+    for (let k = nTheta - 1; k >= 1; k--) {
+      const b0 = t2 * b1 - b2 + (c[k] as number);
+      b2 = b1;
+      b1 = b0;
+    }
+    return 0.5 * t2 * b1 - b2 + (c[0] as number);
+  }
+
   return {
+    nTheta,
+    correctionCoefficients,
+    evaluateCorrection,
     xMax,
     kTeMaxKeV: table.kTeMaxKeV,
     shape,

@@ -97,7 +97,7 @@ describe("aperture errors", () => {
   });
 
   it("interpolates a binned power spectrum linearly and skips NaN bins", () => {
-    const p = interpolatePower({ ellCentres: [100, 200, 300, 400], cl: [1, NaN, 3, 5] });
+    const p = interpolatePower({ ellCenters: [100, 200, 300, 400], cl: [1, NaN, 3, 5] });
     expect([p(50), p(100), p(200), p(350), p(1000)]).toAllClose([1, 1, 2, 4, 5], { rtol: 1e-14 });
   });
 

@@ -14,7 +14,7 @@ import { checkApertureSpec, pixelAreaArcmin2, type ApertureSpec } from "./photom
 
 /** A binned power spectrum: bin centres in ℓ and C_ℓ (sr × map unit²). NaN bins are ignored. */
 export interface PowerTable {
-  ellCentres: ArrayLike<number>;
+  ellCenters: ArrayLike<number>;
   cl: ArrayLike<number>;
 }
 
@@ -22,8 +22,8 @@ export interface PowerTable {
 export function interpolatePower(table: PowerTable): (ell: number) => number {
   const xs: number[] = [];
   const ys: number[] = [];
-  for (let i = 0; i < table.ellCentres.length; i++) {
-    const x = table.ellCentres[i] as number;
+  for (let i = 0; i < table.ellCenters.length; i++) {
+    const x = table.ellCenters[i] as number;
     const y = table.cl[i] as number;
     if (Number.isFinite(x) && Number.isFinite(y)) {
       xs.push(x);

@@ -79,7 +79,7 @@ export interface HarmonicIlcResult {
   maxBiasFraction: number;
 }
 
-function usableModes(input: HarmonicIlcInput): Uint8Array {
+function usableModes(input: Pick<HarmonicIlcInput, "layout" | "ellPerMode" | "beamRatio">): Uint8Array {
   const n = input.layout.modeCount;
   const ok = new Uint8Array(n);
   for (let k = 0; k < n; k++) {
@@ -142,11 +142,11 @@ function windowSupport(set: EllWindowSet, j: number): [number, number] {
   return [lo, hi];
 }
 
-function combine(spectra: readonly Float64Array[], input: HarmonicIlcInput, hs: Float64Array[], weights: Float64Array[], ok: Uint8Array): Float64Array {
+function combine(spectra: readonly Float64Array[], layout: SpectrumLayout, beamRatio: readonly Float64Array[], hs: Float64Array[], weights: readonly Float64Array[], ok: Uint8Array): Float64Array {
   const m = spectra.length;
-  const out = new Float64Array(input.layout.spectrumLength);
+  const out = new Float64Array(layout.spectrumLength);
   const wk = new Float64Array(m);
-  for (let k = 0; k < input.layout.modeCount; k++) {
+  for (let k = 0; k < layout.modeCount; k++) {
     if (!ok[k]) continue;
     wk.fill(0);
     for (let j = 0; j < hs.length; j++) {
@@ -158,7 +158,7 @@ function combine(spectra: readonly Float64Array[], input: HarmonicIlcInput, hs: 
     let re = 0;
     let im = 0;
     for (let a = 0; a < m; a++) {
-      const c = (wk[a] as number) * ((input.beamRatio[a] as Float64Array)[k] as number);
+      const c = (wk[a] as number) * ((beamRatio[a] as Float64Array)[k] as number);
       const s = spectra[a] as Float64Array;
       re += c * (s[2 * k] as number);
       im += c * (s[2 * k + 1] as number);
@@ -167,6 +167,24 @@ function combine(spectra: readonly Float64Array[], input: HarmonicIlcInput, hs: 
     out[2 * k + 1] = im;
   }
   return out;
+}
+
+/**
+ * Apply given per-window weights to other spectra (e.g. noise-only simulations or one component
+ * alone): Y(k) = Σ_j h_j(ℓ_k) Σ_a w_j[a] r_a(k) T_a(k), with the ℓ = 0 mode and modes with a
+ * non-finite beam ratio set to zero, exactly as {@link harmonicIlc} combines its own data.
+ */
+export function combineWithWeights(
+  spectra: readonly Float64Array[],
+  layout: SpectrumLayout,
+  ellPerMode: Float64Array,
+  beamRatio: readonly Float64Array[],
+  windows: EllWindowSet,
+  weights: readonly Float64Array[],
+): Float64Array {
+  if (weights.length !== windowCount(windows)) throw new UmbraError("INTERNAL", `${weights.length} weight vectors for ${windowCount(windows)} windows`);
+  const ok = usableModes({ layout, ellPerMode, beamRatio });
+  return combine(spectra, layout, beamRatio, windowsOnModes(windows, ellPerMode), weights, ok);
 }
 
 /**
@@ -218,9 +236,9 @@ export function harmonicIlc(input: HarmonicIlcInput): HarmonicIlcResult {
       outputPowerPerMode: combinedVariance(cov, w),
     });
   }
-  const spectrum = combine(input.synthesisSpectra, input, hs, weights, ok);
+  const spectrum = combine(input.synthesisSpectra, input.layout, input.beamRatio, hs, weights, ok);
   const covarianceOutputSpectrum =
-    input.synthesisSpectra === input.covarianceSpectra ? spectrum : combine(input.covarianceSpectra, input, hs, weights, ok);
+    input.synthesisSpectra === input.covarianceSpectra ? spectrum : combine(input.covarianceSpectra, input.layout, input.beamRatio, hs, weights, ok);
   return {
     spectrum,
     covarianceOutputSpectrum,

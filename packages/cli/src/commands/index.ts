@@ -3,8 +3,9 @@
  * Add a line here when you add a command.
  */
 import type { Command } from "commander";
+import { register as registerSed } from "./sed.js";
 
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [];
+export const COMMANDS: readonly RegisterCommand[] = [registerSed];

@@ -1,1 +1,4 @@
-export {};
+export { reproject, sameGrid } from "./reproject.js";
+export type { TargetGrid, ReprojectOptions } from "./reproject.js";
+export { keysKernel, sampleBicubic, sampleBilinear } from "./interpolate.js";
+export type { InterpolationMethod } from "./interpolate.js";

@@ -4,8 +4,9 @@
  */
 import type { Command } from "commander";
 import { register as registerSed } from "./sed.js";
+import { register as registerCluster } from "./cluster.js";
 
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerSed];
+export const COMMANDS: readonly RegisterCommand[] = [registerSed, registerCluster];

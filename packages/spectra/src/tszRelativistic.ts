@@ -54,6 +54,19 @@ export function checkElectronTemperature(kTeKeV: number): number {
   return kTeKeV;
 }
 
+let cachedKey = "";
+let cachedKernel: Kernel | undefined;
+
+/** The kernel for θ, reusing the last one built when θ and the orders repeat (a band at one kTe). */
+function kernelFor(theta: number, q: RelativisticQuadrature): Kernel {
+  const key = `${theta}|${q.angleNodes ?? 40}|${q.speedNodes ?? 32}|${q.uMax ?? 60}`;
+  if (key !== cachedKey || cachedKernel === undefined) {
+    cachedKernel = buildKernel(theta, q);
+    cachedKey = key;
+  }
+  return cachedKernel;
+}
+
 function buildKernel(theta: number, q: RelativisticQuadrature): Kernel {
   const na = q.angleNodes ?? 40;
   const nt = q.speedNodes ?? 32;
@@ -117,7 +130,7 @@ export function tszRelativisticShapeExact(
     return out;
   }
   const theta = thetaFromKeV(kTeKeV);
-  const { weight, ratio } = buildKernel(theta, quadrature);
+  const { weight, ratio } = kernelFor(theta, quadrature);
   const n = weight.length;
   for (let i = 0; i < x.length; i++) {
     const xi = x[i] as number;
@@ -125,7 +138,9 @@ export function tszRelativisticShapeExact(
     let s = 0;
     for (let k = 0; k < n; k++) {
       const z = xi * (ratio[k] as number);
-      s += (weight[k] as number) * ((z * z * z) / Math.expm1(z) - j0);
+      // exp(z) − 1 loses < 1e-15/z relative; expm1 (slower in V8) only where that matters
+      const d = z > 0.5 ? Math.exp(z) - 1 : Math.expm1(z);
+      s += (weight[k] as number) * ((z * z * z) / d - j0);
     }
     out[i] = s / (theta * blackbodyDerivativeShape(xi));
   }

@@ -146,6 +146,24 @@ export function profileFourierAtEll(shape: FourierShape, theta500Rad: number, el
   requireFinite("theta500Rad", theta500Rad, (v) => v > 0, "not positive");
   const res = out ?? new Float64Array(ells.length);
   const t2 = theta500Rad * theta500Rad;
-  for (let i = 0; i < ells.length; i++) res[i] = t2 * fourierShapeLookup(shape, ells[i]! * theta500Rad);
+  // the spline evaluation of fourierShapeLookup, inlined for the per-mode loop
+  const { values, second, du, qMax, tailIndex } = shape;
+  const n = values.length;
+  const invDu = 1 / du;
+  const h26 = (du * du) / 6;
+  const last = values[n - 1]!;
+  for (let i = 0; i < ells.length; i++) {
+    const q = Math.abs(ells[i]! * theta500Rad);
+    if (q >= qMax) {
+      res[i] = t2 * last * (q / qMax) ** -tailIndex;
+      continue;
+    }
+    const u = Math.log(q + Math.sqrt(q * q + 1)) * invDu; // asinh(q/Q0), Q0 = 1
+    let j = Math.floor(u);
+    if (j >= n - 1) j = n - 2;
+    const t = u - j;
+    const s = 1 - t;
+    res[i] = t2 * (s * values[j]! + t * values[j + 1]! + ((s * s * s - s) * second[j]! + (t * t * t - t) * second[j + 1]!) * h26);
+  }
   return res;
 }

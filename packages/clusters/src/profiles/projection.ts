@@ -41,10 +41,12 @@ export function lineOfSightIntegral(profile: PressureProfile, x: number, truncat
       return p(l) * l;
     }, 0, vMax, Q);
   }
-  const tMax = T === Infinity ? 40 : Math.acosh(T / x);
+  // r = x cosh t, written so that tiny x (down to denormals) neither overflows nor loses digits
+  const lx = Math.log(x);
+  const tMax = T === Infinity ? 40 - Math.min(lx, 0) : T / x > 1e8 ? Math.log(2 * T) - lx : Math.acosh(T / x);
   return 2 * integrate((t) => {
-    const c = Math.cosh(t);
-    return p(x * c) * x * c;
+    const r = 0.5 * Math.exp(t + lx) + 0.5 * x * Math.exp(-t);
+    return p(r) * r;
   }, 0, tMax, Q);
 }
 

@@ -1,3 +1,4 @@
 export * from "./cmb/index.js";
 export * from "./scenario/index.js";
+export * from "./sky/index.js";
 export * from "./regression/index.js";

@@ -43,3 +43,4 @@ export function parseClTable(text: string, column: ClColumn, file: string): ClTa
   if (problems.length > 0) throw new UmbraError("BAD_SCENARIO", `C_ell table has ${problems.length} problem(s): ${problems[0]}`, { file }, problems);
   return { ell: Float64Array.from(ell), clK2: Float64Array.from(cl) };
 }
+

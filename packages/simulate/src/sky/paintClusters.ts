@@ -1,0 +1,83 @@
+/**
+ * Clusters painted in Fourier space: each cluster's template is y0 θ500² F̃(ℓ θ500) (the flat-sky
+ * transform of the projected A10 profile truncated at 5 R500, from @umbra/clusters'
+ * profileFourierAtEll), divided by the pixel solid angle (the DFT of a sampled field) and shifted
+ * to its sub-pixel centre by the phase exp(−2πi(k_x x_c/n_x + k_y y_c/n_y)). The result is the
+ * band-limited sky sampled at pixel centres, with no pixel window and exact sub-pixel positions;
+ * the transform is periodic, so a cluster near an edge wraps to the opposite edge.
+ */
+import { RAD_PER_ARCMIN } from "@umbra/core";
+import { fourierShape, gnfwA10, profileFourierAtEll } from "@umbra/clusters";
+import type { SpectrumLayout } from "@umbra/maps";
+import type { TrueCluster } from "./clusterTruth.js";
+
+/** Number of nodes of each cluster's radial ℓ table (linear interpolation between them). */
+const TABLE_NODES = 4096;
+
+/**
+ * Add every cluster into every band's spectrum: spectra[b] += amplitude[c][b] · template_c, with
+ * `amplitudes[c][b]` the band response (K_CMB per unit y0, kSZ included) of cluster c.
+ * `ells` are the modes' multipoles; `pixelSr` the pixel solid angle.
+ */
+export function paintClusters(
+  spectra: readonly Float64Array[],
+  clusters: readonly TrueCluster[],
+  amplitudes: readonly Float64Array[],
+  layout: SpectrumLayout,
+  ells: Float64Array,
+  pixelSr: number,
+): void {
+  if (clusters.length === 0) return;
+  const shape = fourierShape(gnfwA10());
+  let ellMax = 0;
+  for (let m = 0; m < ells.length; m++) if (ells[m]! > ellMax) ellMax = ells[m]!;
+  const dEll = (ellMax * 1.0001) / (TABLE_NODES - 2);
+  const grid = new Float64Array(TABLE_NODES);
+  for (let j = 0; j < TABLE_NODES; j++) grid[j] = j * dEll;
+  const table = new Float64Array(TABLE_NODES);
+  const { nx, ny, kxIndex, kyIndex, modeCount } = layout;
+  const nkx = (nx >> 1) + 1;
+  const exRe = new Float64Array(nkx);
+  const exIm = new Float64Array(nkx);
+  const eyRe = new Float64Array(ny);
+  const eyIm = new Float64Array(ny);
+  const nb = spectra.length;
+  const amp = new Float64Array(nb);
+  for (let c = 0; c < clusters.length; c++) {
+    const cl = clusters[c]!;
+    profileFourierAtEll(shape, cl.theta500Arcmin * RAD_PER_ARCMIN, grid, table);
+    const scale = cl.y0 / pixelSr;
+    for (let b = 0; b < nb; b++) amp[b] = amplitudes[c]![b]! * scale;
+    for (let k = 0; k < nkx; k++) {
+      const ph = (-2 * Math.PI * k * cl.xPix) / nx;
+      exRe[k] = Math.cos(ph);
+      exIm[k] = Math.sin(ph);
+    }
+    for (let k = 0; k < ny; k++) {
+      const signed = k < (ny + 1) >> 1 ? k : k - ny; // numpy fftfreq order: the Nyquist row is −ny/2
+      const ph = (-2 * Math.PI * signed * cl.yPix) / ny;
+      eyRe[k] = Math.cos(ph);
+      eyIm[k] = Math.sin(ph);
+    }
+    const inv = 1 / dEll;
+    for (let m = 0; m < modeCount; m++) {
+      const t = ells[m]! * inv;
+      const j = t | 0;
+      const f = table[j]! + (t - j) * (table[j + 1]! - table[j]!);
+      const kx = kxIndex[m]!;
+      let ky = kyIndex[m]!;
+      if (ky < 0) ky += ny;
+      const ar = exRe[kx]!;
+      const ai = exIm[kx]!;
+      const br = eyRe[ky]!;
+      const bi = eyIm[ky]!;
+      const re = f * (ar * br - ai * bi);
+      const im = f * (ar * bi + ai * br);
+      for (let b = 0; b < nb; b++) {
+        const s = spectra[b]!;
+        s[2 * m] = s[2 * m]! + amp[b]! * re;
+        s[2 * m + 1] = s[2 * m + 1]! + amp[b]! * im;
+      }
+    }
+  }
+}

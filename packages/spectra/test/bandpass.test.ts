@@ -70,3 +70,22 @@ describe("bandpass integration", () => {
     }
   });
 });
+
+describe("bandpass invariances (properties)", () => {
+  it("responses do not depend on the overall scale of the transmission (common practice)", async () => {
+    const fc = (await import("fast-check")).default;
+    fc.assert(
+      fc.property(fc.double({ min: 1e-6, max: 1e6, noNaN: true }), fc.double({ min: 20, max: 800, noNaN: true }), (scale, nu) => {
+        const f = [nu * 0.85, nu * 0.95, nu, nu * 1.1, nu * 1.2];
+        const w = [0.1, 0.8, 1, 0.6, 0.05];
+        const a = { bandpass: bp(f, w) };
+        const b = { bandpass: bp(f, w.map((v) => v * scale)) };
+        for (const c of [{ kind: "tsz" as const, kTeKeV: 7 }, { kind: "dust" as const, beta: 1.5, temperatureK: 18, refFrequencyGHz: 353 }]) {
+          expect(componentResponse(c, b, "MJy/sr")).toAllClose(componentResponse(c, a, "MJy/sr"), { rtol: 1e-13 });
+          expect(componentResponse(c, b, "K_CMB")).toAllClose(componentResponse(c, a, "K_CMB"), { rtol: 1e-13 });
+        }
+      }),
+      { numRuns: 50, seed: 11 },
+    );
+  });
+});

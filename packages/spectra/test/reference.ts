@@ -8,6 +8,7 @@ export interface Reference {
   constants: { h_Js: number; k_B_JpK: number; c_mps: number; m_e_c2_keV: number; sigma_T_m2: number };
   planck: { frequency_ghz: number; temperature_k: number; b_mjy_sr: number; dbdt_mjy_sr_per_k: number }[];
   unit_conversions: { frequency_ghz: number; mjy_sr_per_k_cmb: number; mjy_sr_per_k_rj: number }[];
+  maxwell_juttner: { kte_kev: number; theta: number; k3_over_k2: number }[];
   tsz_nonrel: { x_null: number; x_intensity_min: number; x_intensity_max: number; ghz_per_x: number };
 }
 

@@ -5,7 +5,10 @@ import {
   tszCrossoverItoh,
   tszRelativisticShapeExact,
   tszShape,
+  blackbodyDerivativeShape,
+  gaussLegendre,
 } from "../src/index.js";
+import { REFERENCE } from "./reference.js";
 
 const XS = Float64Array.from([0.18, 0.5, 1, 1.76, 2.6, 3.2, 4.6, 6, 8, 10, 13, 17.6]); // ≈ 10 GHz … 1 THz
 
@@ -73,6 +76,27 @@ describe("exact relativistic tSZ (Wright 1979 single scattering)", () => {
         }
       }
       expect(0.5 * (a + b)).toAllClose(tszCrossoverItoh(kte), { atol: 1e-3 });
+    }
+  });
+  it("raises the photon energy by 4θ K3(1/θ)/K2(1/θ) per scattering: (4/3)<γ²β²> (Rybicki & Lightman 1979, eq. 7.16a) over a Maxwell–Jüttner gas (K from scipy kve)", () => {
+    // ∫ΔI dν / ∫B dν = τ (<e^s> − 1) = y · 4 K3/K2, i.e. ∫ G(x) Y(x, θ) dx = (4π⁴/15) K3/K2
+    const edges = [0, 2, 4, 6, 8, 10, 12, 15, 20, 30, 45, 70, 100, 150, 220, 300, 400];
+    const rule = gaussLegendre(16);
+    const xs: number[] = [];
+    const ws: number[] = [];
+    for (let k = 0; k + 1 < edges.length; k++) {
+      const a = edges[k]!;
+      const b = edges[k + 1]!;
+      for (let i = 0; i < 16; i++) {
+        xs.push(0.5 * (a + b) + 0.5 * (b - a) * rule.nodes[i]!);
+        ws.push(0.5 * (b - a) * rule.weights[i]!);
+      }
+    }
+    for (const ref of REFERENCE.maxwell_juttner.filter((r) => r.kte_kev === 5 || r.kte_kev === 50)) {
+      const y = tszRelativisticShapeExact(Float64Array.from(xs), ref.kte_kev);
+      let s = 0;
+      for (let i = 0; i < xs.length; i++) s += ws[i]! * blackbodyDerivativeShape(xs[i]!) * y[i]!;
+      expect(s / ((4 * Math.PI ** 4) / 15)).toAllClose(ref.k3_over_k2, { rtol: 1e-7 });
     }
   });
 });

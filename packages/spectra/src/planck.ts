@@ -50,8 +50,9 @@ export function planckIntensity(frequencyGHz: number, temperatureK: number): num
 export function dPlanckdT(frequencyGHz: number, temperatureK: number = T0_K): number {
   const nu = frequencyGHz * HZ_PER_GHZ;
   const x = (H_OVER_K * nu) / temperatureK;
-  const em1 = Math.expm1(x);
-  return (TWO_H_OVER_C2_MJY * nu * nu * nu * x * (em1 + 1)) / (temperatureK * em1 * em1);
+  // written with e^(−x) so the Wien tail neither overflows nor gives Inf/Inf
+  const d = -Math.expm1(-x);
+  return (TWO_H_OVER_C2_MJY * nu * nu * nu * x * Math.exp(-x)) / (temperatureK * d * d);
 }
 
 /**

@@ -56,8 +56,10 @@ describe("Planck function", () => {
     expect(planckIntensity(0.01, 20)).toAllClose(20 * rayleighJeansPerK(0.01), { rtol: 2e-5 });
     expect(dPlanckdT(0.001, 2.7255)).toAllClose(rayleighJeansPerK(0.001), { rtol: 1e-5 });
   });
-  it("returns zero intensity for zero temperature and no NaN at 5 THz for T0", () => {
+  it("returns zero intensity for zero temperature and finite values deep in the Wien tail (x ≈ 1800)", () => {
     expect(planckIntensity(150, 0)).toBe(0);
     expect(Number.isFinite(dPlanckdT(5000))).toBe(true);
+    expect(dPlanckdT(100000)).toBe(0);
+    expect(planckIntensity(100000, 2.7255)).toBe(0);
   });
 });

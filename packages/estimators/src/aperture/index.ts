@@ -4,3 +4,5 @@ export { apertureKernel, apertureVarianceFromPower, interpolatePower } from "./v
 export type { PowerTable } from "./variance.js";
 export { randomApertureScatter } from "./random.js";
 export type { RandomApertureOptions, RandomApertureScatter } from "./random.js";
+export { measureCatalogByIlc } from "./measure.js";
+export type { IlcMeasureOptions, IlcMeasureResult } from "./measure.js";

@@ -10,3 +10,4 @@ export type { IlcBand, IlcKind, DeprojectKind, DustSed, YMapOptions, YMapProduct
 export { applyYMapWeights } from "./ymap.js";
 export { yMapNoisePower } from "./ypower.js";
 export type { YMapNoiseOptions } from "./ypower.js";
+export { ilcBandsFromStack } from "./stack.js";

@@ -21,6 +21,7 @@ import {
   type FlatGeometry,
 } from "@umbra/maps";
 import { componentResponse, type BandSpec, type ComponentSpec } from "@umbra/spectra";
+import { inpaintHarmonic } from "../sources/inpaint.js";
 import { apodisationModeFactor } from "./bias.js";
 import { combineWithWeights, harmonicIlc, type IlcDomainReport } from "./harmonic.js";
 import { cosineEllWindows, type EllWindowSet } from "./windows.js";
@@ -36,6 +37,8 @@ export interface IlcBand {
   beamTransfer: (ell: Float64Array) => Float64Array;
   /** Beam FWHM in arcmin (for a beam file: its equivalent Gaussian), used to choose the effective beam. */
   fwhmArcmin: number;
+  /** 1 = use, 0 = masked (e.g. a bright point source; inpainted before the transform), or null/absent. */
+  mask?: Uint8Array | null;
 }
 
 /** Which member of the ILC family. */
@@ -83,7 +86,7 @@ export interface YMapOptions {
 
 /** A y map and everything needed to use and trust it. */
 export interface YMapProduct {
-  /** Compton-y (dimensionless), row-major nx·ny, convolved with the effective beam; NaN where any band is NaN. */
+  /** Compton-y (dimensionless), row-major nx·ny, convolved with the effective beam; NaN where any band is missing or masked. */
   y: Float64Array;
   geometry: FlatGeometry;
   ilc: IlcKind;
@@ -139,8 +142,8 @@ function beamRatios(bands: readonly IlcBand[], ell: Float64Array, effFwhmArcmin:
 /**
  * Apply a y map's ILC (its windows, per-window weights and beam equalisation) to other maps of the
  * same bands, e.g. noise-only simulations (the y-map noise from simulations) or one sky component
- * alone (its residual in the y map). Maps in K_CMB, same order and grid as the y map's bands; NaN
- * pixels are filled with the band mean as in {@link buildYMap}.
+ * alone (its residual in the y map). Maps in K_CMB, same order and grid as the y map's bands;
+ * missing and masked pixels are inpainted as in {@link buildYMap}.
  */
 export function applyYMapWeights(product: YMapProduct, bands: readonly IlcBand[]): Float64Array {
   const geom = product.geometry;
@@ -152,7 +155,7 @@ export function applyYMapWeights(product: YMapProduct, bands: readonly IlcBand[]
   const n = geom.nx * geom.ny;
   const buf = new Float64Array(n);
   const spectra = bands.map((b) => {
-    fillCentred(b, buf);
+    fillCentred(b, buf, geom.nx, geom.ny);
     const s = new Float64Array(plan.layout.spectrumLength);
     plan.forward(buf, s);
     return s;
@@ -165,25 +168,27 @@ export function applyYMapWeights(product: YMapProduct, bands: readonly IlcBand[]
   return out;
 }
 
-/** buf = map − mean(finite pixels), NaN → 0; returns a mask of the non-finite pixels. */
-function fillCentred(b: IlcBand, buf: Float64Array): Uint8Array {
+/**
+ * buf = map − mean(valid pixels), with missing (NaN) and masked pixels harmonically inpainted
+ * (../sources/inpaint.ts): holes would leak large-scale power into cluster scales. Returns the mask
+ * of pixels that were missing or masked.
+ */
+function fillCentred(b: IlcBand, buf: Float64Array, nx: number, ny: number): Uint8Array {
   const n = buf.length;
   const invalid = new Uint8Array(n);
   let sum = 0;
   let count = 0;
   for (let p = 0; p < n; p++) {
     const v = b.map[p] as number;
-    if (Number.isFinite(v)) {
+    if (Number.isFinite(v) && (b.mask == null || b.mask[p] !== 0)) {
       sum += v;
       count++;
     } else invalid[p] = 1;
   }
-  if (count === 0) throw new UmbraError("BAD_DATA", "band map has no finite pixel", { band: b.name });
+  if (count === 0) throw new UmbraError("BAD_DATA", "band map has no valid pixel (all missing or masked)", { band: b.name });
   const mean = sum / count;
-  for (let p = 0; p < n; p++) {
-    const v = b.map[p] as number;
-    buf[p] = Number.isFinite(v) ? v - mean : 0; // missing pixels filled with the mean (no inpainting)
-  }
+  for (let p = 0; p < n; p++) buf[p] = invalid[p] ? 0 : (b.map[p] as number) - mean;
+  if (count < n) inpaintHarmonic(buf, invalid, nx, ny);
   return invalid;
 }
 
@@ -228,7 +233,7 @@ export function buildYMap(bands: readonly IlcBand[], geom: FlatGeometry, options
   const covSpec: Float64Array[] = [];
   const buf = new Float64Array(n);
   for (const b of bands) {
-    const bad = fillCentred(b, buf);
+    const bad = fillCentred(b, buf, geom.nx, geom.ny);
     for (let p = 0; p < n; p++) if (bad[p]) invalid[p] = 1;
     const s = new Float64Array(layout.spectrumLength);
     plan.forward(buf, s);

@@ -14,10 +14,12 @@ import type { YMapProduct } from "./ymap.js";
 
 /** Options of {@link yMapNoisePower}. */
 export interface YMapNoiseOptions {
-  /** Pixel positions (0-based) of clusters to cut out. */
-  positions: readonly { xPix: number; yPix: number }[];
-  /** Radius of each cut, arcmin. */
+  /** Pixel positions (0-based) of clusters to cut out, each optionally with its own cut radius (arcmin). */
+  positions: readonly { xPix: number; yPix: number; radiusArcmin?: number }[];
+  /** Radius of each cut without its own, arcmin. */
   holeRadiusArcmin: number;
+  /** The map to measure instead of product.y (e.g. the y map with a fit of every cluster subtracted). */
+  map?: Float64Array;
   /** Cosine taper width around cuts and border, arcmin (default 2). */
   taperArcmin?: number;
 }
@@ -29,10 +31,12 @@ export function yMapNoisePower(product: YMapProduct, options: YMapNoiseOptions):
   if (!(options.holeRadiusArcmin >= 0)) throw new UmbraError("BAD_VALUE", `hole radius ${options.holeRadiusArcmin} arcmin must be ≥ 0`, { field: "holeRadiusArcmin" });
   const dxA = geom.dxRad / RAD_PER_ARCMIN;
   const dyA = geom.dyRad / RAD_PER_ARCMIN;
+  const y = options.map ?? product.y;
+  if (y.length !== nx * ny) throw new UmbraError("INTERNAL", `map of ${y.length} pixels for a ${nx}×${ny} grid`);
   const mask = new Float64Array(nx * ny).fill(1);
-  for (let p = 0; p < mask.length; p++) if (!Number.isFinite(product.y[p] as number)) mask[p] = 0;
-  const r = options.holeRadiusArcmin;
+  for (let p = 0; p < mask.length; p++) if (!Number.isFinite(y[p] as number)) mask[p] = 0;
   for (const c of options.positions) {
+    const r = c.radiusArcmin ?? options.holeRadiusArcmin;
     const x0 = Math.max(0, Math.floor(c.xPix - r / dxA));
     const x1 = Math.min(nx - 1, Math.ceil(c.xPix + r / dxA));
     const y0 = Math.max(0, Math.floor(c.yPix - r / dyA));
@@ -54,14 +58,14 @@ export function yMapNoisePower(product: YMapProduct, options: YMapNoiseOptions):
   for (let p = 0; p < buf.length; p++) {
     const wp = w[p] as number;
     if (wp > 0) {
-      mean += wp * (product.y[p] as number);
+      mean += wp * (y[p] as number);
       wsum += wp;
     }
   }
   mean /= wsum;
   for (let p = 0; p < buf.length; p++) {
     const wp = w[p] as number;
-    buf[p] = wp > 0 ? wp * ((product.y[p] as number) - mean) : 0;
+    buf[p] = wp > 0 ? wp * ((y[p] as number) - mean) : 0;
   }
   const spec = new Float64Array(plan.layout.spectrumLength);
   plan.forward(buf, spec);

@@ -1,8 +1,9 @@
 /**
- * The spectrum layout of our float64 and float32 plans: the half plane kx = 0 … floor(nx/2) stored
- * column by column ("transposed"): mode m = ix·ny + iy holds F[ky(iy), kx = ix] with
- * ky(iy) = iy for iy ≤ floor((ny−1)/2), else iy − ny (numpy's fftfreq·ny order). Each column of
- * ny modes is contiguous, which is what the y pass of the 2-D transform wants.
+ * Spectrum layouts of our plans. Both store the half plane kx = 0 … floor(nx/2) with
+ * ky(iy) = iy for iy ≤ floor((ny−1)/2), else iy − ny (numpy's fftfreq·ny order):
+ * - row-major (float64 plan; numpy's rfft2 order): mode m = iy·nh + ix, nh = floor(nx/2) + 1;
+ * - transposed (float32 plan): mode m = ix·ny + iy, each column of ny modes contiguous.
+ * Consumers never rely on either: they use the layout's per-mode arrays.
  */
 import type { SpectrumLayout } from "./types.js";
 
@@ -11,8 +12,18 @@ export function halfWidth(nx: number): number {
   return Math.floor(nx / 2) + 1;
 }
 
-/** Build the per-mode arrays (signed indices, Hermitian weights) of the column-major half-plane layout. */
+/** Per-mode arrays of the row-major half-plane layout (mode m = iy·nh + ix). */
+export function makeRowMajorLayout(nx: number, ny: number): SpectrumLayout {
+  return makeLayout(nx, ny, false);
+}
+
+/** Per-mode arrays of the transposed half-plane layout (mode m = ix·ny + iy). */
 export function makeTransposedLayout(nx: number, ny: number): SpectrumLayout {
+  return makeLayout(nx, ny, true);
+}
+
+/** Build the per-mode arrays (signed indices, Hermitian weights) of a half-plane layout. */
+function makeLayout(nx: number, ny: number, transposed: boolean): SpectrumLayout {
   const nh = halfWidth(nx);
   const modeCount = nh * ny;
   const kxIndex = new Int32Array(modeCount);
@@ -23,7 +34,7 @@ export function makeTransposedLayout(nx: number, ny: number): SpectrumLayout {
     const selfPaired = ix === 0 || (nx % 2 === 0 && ix === nx / 2);
     const w = selfPaired ? 1 : 2;
     for (let iy = 0; iy < ny; iy++) {
-      const m = ix * ny + iy;
+      const m = transposed ? ix * ny + iy : iy * nh + ix;
       kxIndex[m] = ix;
       kyIndex[m] = iy <= lastPositive ? iy : iy - ny;
       hermitianWeight[m] = w;

@@ -1,22 +1,24 @@
 /**
- * The float64 real 2-D FFT driver (normalisation: see types.ts; layout: see layout.ts).
+ * The float64 real 2-D FFT driver (normalisation: see types.ts; layout: row-major half plane, see
+ * layout.ts).
  *
  * Forward: rows are transformed two at a time as one complex FFT z = a + i·b of length nx and
  * separated with A_k = (Z_k + conj Z_{−k})/2, B_k = (Z_k − conj Z_{−k})/(2i) (Press et al. 2007,
- * Numerical Recipes 3rd ed., sec. 12.3.2); the half rows are scattered straight into the
- * column-major spectrum, whose contiguous columns are then transformed in place along y.
- * Inverse: columns are transformed from the spectrum into the plan's one scratch buffer, then two
- * rows at a time are rebuilt as Z_k = A_k + i·B_k over the full k range (Hermitian extension; the
- * imaginary parts of the kx = 0 and kx = nx/2 columns are dropped, as numpy's irfft does) and
- * inverse-transformed. The 1/(nx·ny) factor is applied in that last unpacking loop.
+ * Numerical Recipes 3rd ed., sec. 12.3.2); `rowLanes` such pairs are packed into one lane buffer
+ * and transformed together by the batched kernel (mixed-radix.ts). The half rows land in the
+ * spectrum row by row. Columns are then transformed `colLanes` at a time along y, the kernel's first
+ * stage reading straight from the spectrum rows and its last stage writing back into them.
+ * Inverse: columns go from the spectrum into the plan's one scratch buffer; then row pairs are rebuilt as Z_k = A_k + i·B_k over the full k range (Hermitian
+ * extension; the imaginary parts of the kx = 0 and kx = nx/2 columns are dropped, as numpy's
+ * irfft does), inverse-transformed and unpacked with the 1/(nx·ny) factor.
  *
  * Memory: the caller's map and spectrum, one scratch of spectrumLength doubles (allocated on the
- * first inverse) and O(nx + ny) row/column buffers. No allocation per call.
+ * first inverse), and lane buffers of O((nx + ny)·lanes) doubles. No allocation per call.
  */
 import { UmbraError } from "@umbra/core";
-import { makeComplexFft } from "./bluestein.js";
-import type { ComplexFft } from "./mixed-radix.js";
-import { halfWidth, makeTransposedLayout } from "./layout.js";
+import { makeLaneFft } from "./bluestein.js";
+import type { LaneFft } from "./mixed-radix.js";
+import { halfWidth, makeRowMajorLayout } from "./layout.js";
 import type { Rfft2Plan, SpectrumLayout } from "./types.js";
 
 /** Throw BAD_VALUE unless n is an integer ≥ 1. */
@@ -33,16 +35,23 @@ export function checkLength(name: string, buf: ArrayLike<number>, len: number): 
   }
 }
 
+/** Lanes per batch for length n: keeps a lane buffer near LANE_DOUBLES doubles (tuned on the benchmark machine). */
+const LANE_DOUBLES = 1 << 16;
+export function laneCount(n: number, cap: number): number {
+  return Math.max(1, Math.min(cap, 32, Math.floor(LANE_DOUBLES / (2 * n))));
+}
+
 /** Float64 plan for one (nx, ny); see the module comment. Holds buffers: one plan per thread. */
 export class Rfft2PlanF64 implements Rfft2Plan {
   readonly nx: number;
   readonly ny: number;
   readonly layout: SpectrumLayout;
   private readonly nh: number;
-  private readonly rowFft: ComplexFft;
-  private readonly colFft: ComplexFft;
-  private readonly rowIn: Float64Array;
-  private readonly rowOut: Float64Array;
+  private readonly rowLanes: number;
+  private readonly colLanes: number;
+  private readonly rowFft: LaneFft;
+  private readonly colFft: LaneFft;
+  private readonly rowBuf: Float64Array;
   private scratch: Float64Array | null = null;
 
   constructor(nx: number, ny: number) {
@@ -51,52 +60,72 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     this.nx = nx;
     this.ny = ny;
     this.nh = halfWidth(nx);
-    this.layout = makeTransposedLayout(nx, ny);
-    this.rowFft = makeComplexFft(nx);
-    this.colFft = ny === nx ? this.rowFft : makeComplexFft(ny);
-    this.rowIn = new Float64Array(2 * nx);
-    this.rowOut = new Float64Array(2 * nx);
+    this.layout = makeRowMajorLayout(nx, ny);
+    this.rowLanes = laneCount(nx, Math.ceil(ny / 2));
+    this.colLanes = laneCount(ny, this.nh);
+    this.rowFft = makeLaneFft(nx, this.rowLanes);
+    this.colFft = makeLaneFft(ny, this.colLanes);
+    this.rowBuf = new Float64Array(2 * nx * this.rowLanes);
   }
 
   forward(map: Float64Array, spectrum: Float64Array): void {
     const { nx, ny, nh } = this;
     checkLength("map", map, nx * ny);
     checkLength("spectrum", spectrum, this.layout.spectrumLength);
-    const zin = this.rowIn;
-    const z = this.rowOut;
-    const col = 2 * ny; // doubles per spectrum column
-    for (let y = 0; y < ny; y += 2) {
-      const hasB = y + 1 < ny;
-      const ra = y * nx;
-      if (hasB) {
-        const rb = ra + nx;
-        for (let x = 0; x < nx; x++) {
-          zin[2 * x] = map[ra + x] as number;
-          zin[2 * x + 1] = map[rb + x] as number;
-        }
-      } else {
-        for (let x = 0; x < nx; x++) {
-          zin[2 * x] = map[ra + x] as number;
-          zin[2 * x + 1] = 0;
+    const buf = this.rowBuf;
+    const rowLen = 2 * nh; // doubles per spectrum row
+    for (let y0 = 0; y0 < ny; y0 += 2 * this.rowLanes) {
+      const pairs = Math.min(this.rowLanes, Math.ceil((ny - y0) / 2));
+      const L2 = 2 * pairs;
+      for (let v = 0; v < pairs; v++) {
+        const ra = (y0 + 2 * v) * nx;
+        const off = 2 * v;
+        if (y0 + 2 * v + 1 < ny) {
+          const rb = ra + nx;
+          for (let x = 0, o = off; x < nx; x++, o += L2) {
+            buf[o] = map[ra + x] as number;
+            buf[o + 1] = map[rb + x] as number;
+          }
+        } else {
+          for (let x = 0, o = off; x < nx; x++, o += L2) {
+            buf[o] = map[ra + x] as number;
+            buf[o + 1] = 0;
+          }
         }
       }
-      this.rowFft.transform(zin, 0, z, 0, -1);
-      let o = 2 * y;
-      for (let k = 0; k < nh; k++, o += col) {
-        const nk = k === 0 ? 0 : nx - k;
-        const zr = z[2 * k] as number;
-        const zi = z[2 * k + 1] as number;
-        const cr = z[2 * nk] as number;
-        const ci = -(z[2 * nk + 1] as number);
-        spectrum[o] = 0.5 * (zr + cr);
-        spectrum[o + 1] = 0.5 * (zi + ci);
-        if (hasB) {
-          spectrum[o + 2] = 0.5 * (zi - ci);
-          spectrum[o + 3] = -0.5 * (zr - cr);
+      this.rowFft.transform(buf, 0, L2, buf, 0, L2, pairs, -1);
+      for (let v = 0; v < pairs; v++) {
+        const ya = y0 + 2 * v;
+        const hasB = ya + 1 < ny;
+        const sa = ya * rowLen;
+        const sb = sa + rowLen;
+        const off = 2 * v;
+        for (let k = 0; k < nh; k++) {
+          const i = k * L2 + off;
+          const j = (k === 0 ? 0 : nx - k) * L2 + off;
+          const zr = buf[i] as number;
+          const zi = buf[i + 1] as number;
+          const cr = buf[j] as number;
+          const ci = -(buf[j + 1] as number);
+          spectrum[sa + 2 * k] = 0.5 * (zr + cr);
+          spectrum[sa + 2 * k + 1] = 0.5 * (zi + ci);
+          if (hasB) {
+            spectrum[sb + 2 * k] = 0.5 * (zi - ci);
+            spectrum[sb + 2 * k + 1] = -0.5 * (zr - cr);
+          }
         }
       }
     }
-    for (let k = 0; k < nh; k++) this.colFft.transform(spectrum, k * col, spectrum, k * col, -1);
+    this.columns(spectrum, spectrum, -1);
+  }
+
+  /** Transform all nh columns of `src` along y (dir) into `dst` (may be `src`), colLanes columns at a time, straight from the row-major spectrum. */
+  private columns(src: Float64Array, dst: Float64Array, dir: 1 | -1): void {
+    const rowLen = 2 * this.nh;
+    for (let k0 = 0; k0 < this.nh; k0 += this.colLanes) {
+      const lanes = Math.min(this.colLanes, this.nh - k0);
+      this.colFft.transform(src, 2 * k0, rowLen, dst, 2 * k0, rowLen, lanes, dir);
+    }
   }
 
   inverse(spectrum: Float64Array, map: Float64Array): void {
@@ -105,47 +134,57 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     checkLength("map", map, nx * ny);
     if (this.scratch === null) this.scratch = new Float64Array(this.layout.spectrumLength);
     const s = this.scratch;
-    const col = 2 * ny;
-    for (let k = 0; k < nh; k++) this.colFft.transform(spectrum, k * col, s, k * col, 1);
-    const zin = this.rowIn;
-    const z = this.rowOut;
+    this.columns(spectrum, s, 1);
+    const buf = this.rowBuf;
+    const rowLen = 2 * nh;
     const scale = 1 / (nx * ny);
     const nyq = nx % 2 === 0 ? nx / 2 : -1;
-    for (let y = 0; y < ny; y += 2) {
-      const hasB = y + 1 < ny;
-      let o = 2 * y;
-      for (let k = 0; k < nh; k++, o += col) {
-        const ar = s[o] as number;
-        let ai = s[o + 1] as number;
-        let br = 0;
-        let bi = 0;
-        if (hasB) {
-          br = s[o + 2] as number;
-          bi = s[o + 3] as number;
-        }
-        if (k === 0 || k === nyq) {
-          ai = 0;
-          bi = 0;
-        }
-        // Z_k = A + iB ; Z_{n−k} = conj(A) + i conj(B)
-        zin[2 * k] = ar - bi;
-        zin[2 * k + 1] = ai + br;
-        if (k > 0 && k !== nyq) {
-          const m = 2 * (nx - k);
-          zin[m] = ar + bi;
-          zin[m + 1] = br - ai;
+    for (let y0 = 0; y0 < ny; y0 += 2 * this.rowLanes) {
+      const pairs = Math.min(this.rowLanes, Math.ceil((ny - y0) / 2));
+      const L2 = 2 * pairs;
+      for (let v = 0; v < pairs; v++) {
+        const ya = y0 + 2 * v;
+        const hasB = ya + 1 < ny;
+        const sa = ya * rowLen;
+        const sb = sa + rowLen;
+        const off = 2 * v;
+        for (let k = 0; k < nh; k++) {
+          const ar = s[sa + 2 * k] as number;
+          let ai = s[sa + 2 * k + 1] as number;
+          let br = 0;
+          let bi = 0;
+          if (hasB) {
+            br = s[sb + 2 * k] as number;
+            bi = s[sb + 2 * k + 1] as number;
+          }
+          if (k === 0 || k === nyq) {
+            ai = 0;
+            bi = 0;
+          }
+          // Z_k = A + iB ; Z_{n−k} = conj(A) + i conj(B)
+          const i = k * L2 + off;
+          buf[i] = ar - bi;
+          buf[i + 1] = ai + br;
+          if (k > 0 && k !== nyq) {
+            const j = (nx - k) * L2 + off;
+            buf[j] = ar + bi;
+            buf[j + 1] = br - ai;
+          }
         }
       }
-      this.rowFft.transform(zin, 0, z, 0, 1);
-      const ra = y * nx;
-      if (hasB) {
-        const rb = ra + nx;
-        for (let x = 0; x < nx; x++) {
-          map[ra + x] = (z[2 * x] as number) * scale;
-          map[rb + x] = (z[2 * x + 1] as number) * scale;
+      this.rowFft.transform(buf, 0, L2, buf, 0, L2, pairs, 1);
+      for (let v = 0; v < pairs; v++) {
+        const ra = (y0 + 2 * v) * nx;
+        const off = 2 * v;
+        if (y0 + 2 * v + 1 < ny) {
+          const rb = ra + nx;
+          for (let x = 0, o = off; x < nx; x++, o += L2) {
+            map[ra + x] = (buf[o] as number) * scale;
+            map[rb + x] = (buf[o + 1] as number) * scale;
+          }
+        } else {
+          for (let x = 0, o = off; x < nx; x++, o += L2) map[ra + x] = (buf[o] as number) * scale;
         }
-      } else {
-        for (let x = 0; x < nx; x++) map[ra + x] = (z[2 * x] as number) * scale;
       }
     }
   }

@@ -33,7 +33,7 @@ describe("matched filter against a closed form", () => {
       layout: s.layout, geometry: s.geom, ells: s.ells,
       spectra: [new Float64Array(s.layout.spectrumLength)],
       beams: [gaussianBeam(fwhmB)],
-      covariance: whiteCovariance([[sigmaPix ** 2]], s.geom),
+      covariance: whiteCovariance([[sigmaPix ** 2]], s.geom, [gaussianBeam(fwhmB)]),
     });
     const sig = filterSigma(bank, table, sigC, prepareSedFilter(bank, Float64Array.of(f)));
     expect(sig).toAllClose(closedFormSigma(sigmaPix, pixSr, f, sigC, sigB), { rtol: 1e-5 });
@@ -47,7 +47,7 @@ describe("matched filter against a closed form", () => {
       layout: s.layout, geometry: s.geom, ells: s.ells,
       spectra: [new Float64Array(s.layout.spectrumLength), new Float64Array(s.layout.spectrumLength)],
       beams: [gaussianBeam(fwhmB), gaussianBeam(fwhmB)],
-      covariance: whiteCovariance([[noise[0]! ** 2, 0], [0, noise[1]! ** 2]], s.geom),
+      covariance: whiteCovariance([[noise[0]! ** 2, 0], [0, noise[1]! ** 2]], s.geom, [gaussianBeam(fwhmB), gaussianBeam(fwhmB)]),
     });
     const sig = filterSigma(bank, table, sigC, prepareSedFilter(bank, Float64Array.from(f)));
     const s1 = closedFormSigma(noise[0]!, pixSr, f[0]!, sigC, sigB);
@@ -62,7 +62,7 @@ describe("matched filter against a closed form", () => {
     paintTemplate(s, spectra, table, sigC, sed, beams, 1.7e-4, 40.3, 71.8);
     const bank = buildFilterBank({
       layout: s.layout, geometry: s.geom, ells: s.ells, spectra, beams,
-      covariance: whiteCovariance([[4, 1, 0.5], [1, 3, 1], [0.5, 1, 2]].map((r) => r.map((v) => v * 1e-10)), s.geom),
+      covariance: whiteCovariance([[4, 1, 0.5], [1, 3, 1], [0.5, 1, 2]].map((r) => r.map((v) => v * 1e-10)), s.geom, beams),
     });
     const fit = fitAtPosition(bank, table, sigC, [Float64Array.from(sed)], 40.3, 71.8);
     expect(fit.amplitudes[0]).toAllClose(1.7e-4, { rtol: 1e-5 });
@@ -84,7 +84,7 @@ describe("matched filter against a closed form", () => {
     // a CMB-SED blob with another profile size at the same place, much brighter than the cluster
     paintTemplate(s, spectra, table, 3 * sigC, cmb, beams, 5e-3, 64, 64);
     paintTemplate(s, spectra, table, sigC, sed, beams, 1e-4, 64, 64);
-    const cov = whiteCovariance([[4, 1, 0.5], [1, 3, 1], [0.5, 1, 2]].map((r) => r.map((v) => v * 1e-10)), s.geom);
+    const cov = whiteCovariance([[4, 1, 0.5], [1, 3, 1], [0.5, 1, 2]].map((r) => r.map((v) => v * 1e-10)), s.geom, beams);
     const bank = buildFilterBank({ layout: s.layout, geometry: s.geom, ells: s.ells, spectra, beams, covariance: cov, deproject: [Float64Array.from(cmb)] });
     const fit = fitAtPosition(bank, table, sigC, [Float64Array.from(sed)], 64, 64);
     // leak of the 50× brighter blob: node interpolation (measured 4e-5 of the cluster, < 1e-6 of the blob)
@@ -102,7 +102,7 @@ describe("matched filter against a closed form", () => {
     const spectra = [0, 1, 2].map(() => new Float64Array(s.layout.spectrumLength));
     paintTemplate(s, spectra, table, sigC, [...tsz], beams, 1e-4, 50, 60);
     paintTemplate(s, spectra, table, sigC, [...ksz], beams, -3e-5, 50, 60);
-    const cov = whiteCovariance([[4, 0, 0], [0, 3, 0], [0, 0, 2]].map((r) => r.map((v) => v * 1e-10)), s.geom);
+    const cov = whiteCovariance([[4, 0, 0], [0, 3, 0], [0, 0, 2]].map((r) => r.map((v) => v * 1e-10)), s.geom, beams);
     const bank = buildFilterBank({ layout: s.layout, geometry: s.geom, ells: s.ells, spectra, beams, covariance: cov });
     const fit = fitAtPosition(bank, table, sigC, [tsz, ksz], 50, 60);
     expect(fit.amplitudes).toAllClose([1e-4, -3e-5], { rtol: 1e-5 });
@@ -118,9 +118,10 @@ describe("matched filter against a closed form", () => {
     const rng = createRng(7);
     const est: number[] = [];
     let sigma = 0;
+    const cov = whiteCovariance(pixCov, small.geom, beams, 31000, 8);
     for (let r = 0; r < 300; r++) {
       const spectra = whiteNoiseSpectra(small, chol, rng);
-      const bank = buildFilterBank({ layout: small.layout, geometry: small.geom, ells: small.ells, spectra, beams, covariance: whiteCovariance(pixCov, small.geom) });
+      const bank = buildFilterBank({ layout: small.layout, geometry: small.geom, ells: small.ells, spectra, beams, covariance: cov });
       const fit = fitAtPosition(bank, table, sigC, [sed], 31.5, 20.25);
       est.push(fit.amplitudes[0]!);
       sigma = Math.sqrt(fit.covariance[0]!);

@@ -15,21 +15,29 @@ export function gaussianBeam(fwhmArcmin: number): (ells: Float64Array) => Float6
   return (ells) => ells.map((l) => Math.exp(-0.5 * l * l * s * s));
 }
 
-/** A constant-in-ℓ covariance C_ij (sr·K²) given per-pixel covariance `pixelCov` (nb×nb). */
-export function whiteCovariance(pixelCov: number[][], geom: FlatGeometry): BandCovariance {
+/**
+ * The beam-deconvolved covariance C̃_ij(ℓ) = C_ij/(B_i B_j) (sr·K²) of white noise with per-pixel
+ * covariance `pixelCov` (nb×nb) seen through `beams`, on bins `stepEll` wide up to `ellMax`.
+ */
+export function whiteCovariance(pixelCov: number[][], geom: FlatGeometry, beams: ((l: Float64Array) => Float64Array)[], ellMax = 40000, stepEll = 2): BandCovariance {
   const nb = pixelCov.length;
   const omega = geom.dxRad * geom.dyRad;
-  const values = new Float64Array(2 * nb * nb);
-  for (let k = 0; k < 2; k++) for (let i = 0; i < nb; i++) for (let j = 0; j < nb; j++) values[k * nb * nb + i * nb + j] = (pixelCov[i]?.[j] as number) * omega;
-  return {
-    nBands: nb,
-    ellEdges: Float64Array.of(0, 1e5, 2e5),
-    ellCentres: Float64Array.of(0, 1e5),
-    values,
-    modeCounts: Float64Array.of(1, 1),
-    conditionNumbers: Float64Array.of(1, 1),
-    loading: Float64Array.of(0, 0),
-  };
+  const nBins = Math.ceil(ellMax / stepEll);
+  const centres = new Float64Array(nBins);
+  for (let k = 0; k < nBins; k++) centres[k] = (k + 0.5) * stepEll;
+  const b = beams.map((f) => f(centres));
+  const values = new Float64Array(nBins * nb * nb);
+  for (let k = 0; k < nBins; k++) {
+    for (let i = 0; i < nb; i++) {
+      for (let j = 0; j < nb; j++) {
+        const bb = (b[i]![k] as number) * (b[j]![k] as number);
+        values[k * nb * nb + i * nb + j] = bb > 1e-280 ? ((pixelCov[i]?.[j] as number) * omega) / bb : i === j ? 1e200 : 0;
+      }
+    }
+  }
+  const edges = new Float64Array(nBins + 1);
+  for (let k = 0; k <= nBins; k++) edges[k] = k * stepEll;
+  return { nBands: nb, ellEdges: edges, ellCentres: centres, values, modeCounts: new Float64Array(nBins).fill(1), conditionNumbers: new Float64Array(nBins).fill(1), loading: new Float64Array(nBins) };
 }
 
 export interface Setup {

@@ -2,22 +2,25 @@
  * The filter bank: everything the multi-frequency matched filter needs that does not depend on
  * the cluster, computed once per map stack.
  *
- * With P(ℓ) the band covariance (noise + foregrounds, C_ℓ of ../noise/types.ts
- * divided by the pixel solid angle, so that white noise has P = per-pixel variance),
- * B_i(ℓ) the beam transfer of band i and, optionally, SEDs u_k to deproject, the per-node
- * "inverse noise" is
- *   Π = P⁻¹ − P⁻¹U (Uᵀ P⁻¹ U)⁻¹ Uᵀ P⁻¹,   U = [u_k ∘ B(ℓ)]
- * (P⁻¹ alone without deprojection). Π is the weight of a generalised least-squares fit with the
+ * The filter works in beam-deconvolved band space. With P̃(ℓ) the beam-deconvolved band covariance
+ * (../noise/types.ts, divided by the pixel solid angle so that white noise has P̃ = per-pixel
+ * variance / B²) and, optionally, SEDs u_k to deproject, the per-node "inverse noise" is
+ *   Q = P̃⁻¹ − P̃⁻¹U (Uᵀ P̃⁻¹ U)⁻¹ Uᵀ P̃⁻¹,   U = [u_k]
+ * (P̃⁻¹ alone without deprojection). Q is the weight of a generalised least-squares fit with the
  * deprojected components free in every mode, i.e. zero response to them (constrained matched
  * filter; Remazeilles, Delabrouille & Cardoso 2011, MNRAS 410, 2481, eq. 16 in harmonic form;
- * Melin, Bartlett & Delabrouille 2006, A&A 459, 341, eq. 5 for the unconstrained filter).
- * The bank stores K = diag(B) Π and Q = diag(B) Π diag(B) at each node, and the pre-whitened
- * spectra E_j[k] = (K(ℓ_k) M[k])_j of the data. A cluster fit then needs only sums over modes.
+ * Melin, Bartlett & Delabrouille 2006, A&A 459, 341, eq. 5 for the unconstrained filter). Since
+ * P = diag(B) P̃ diag(B), this is the same filter as Ψ ∝ P⁻¹(a∘B)τ̃ written for the maps:
+ * (a∘B)ᵀ P⁻¹ M = aᵀ P̃⁻¹ (M/B). The bank stores Q at each node (linearly interpolated per mode,
+ * which keeps a common sky component's near-cancellation exact) and the pre-whitened spectra
+ * E[k] = Q(ℓ_k) (M[k]/B(ℓ_k)) with the beams evaluated exactly per mode. A cluster fit then
+ * needs only sums over modes.
  */
 import { Matrix, inverse, CholeskyDecomposition } from "ml-matrix";
 import { UmbraError } from "@umbra/core";
 import type { FlatGeometry, SpectrumLayout } from "@umbra/maps";
 import type { BandCovariance } from "../noise/types.js";
+import { deconvolveBeams } from "../noise/estimate.js";
 import { buildModeGrid, type ModeGrid } from "./modeGrid.js";
 
 /** A band's beam transfer function B(ℓ) (1 at ℓ = 0). */
@@ -54,9 +57,9 @@ export interface FilterBank {
   readonly grid: ModeGrid;
   /** B_i at each node: nNodes × nBands. */
   readonly beamNodes: Float64Array;
-  /** Q = diag(B) Π diag(B) at each node: nNodes × nBands × nBands. */
+  /** Q (beam-deconvolved inverse noise, see module doc) at each node: nNodes × nBands × nBands. */
   readonly qNodes: Float64Array;
-  /** Pre-whitened spectra E_j = (diag(B) Π M)_j, one per band. */
+  /** Pre-whitened spectra E = Q (M/B), one per band. */
   readonly whitened: readonly Float64Array[];
   /** Number of deprojected SEDs. */
   readonly nDeprojected: number;
@@ -67,8 +70,9 @@ export interface FilterBank {
 }
 
 /**
- * Linear interpolation of the binned covariance onto ell (clamped to the end bins), converted to
- * the per-pixel convention P = C/Ω_pix (white noise: P = per-pixel variance) by `scale` = 1/Ω_pix.
+ * Linear interpolation of the binned beam-deconvolved covariance onto ell (clamped to the end
+ * bins), converted to the per-pixel convention by `scale` = 1/Ω_pix. Entry-wise linear
+ * interpolation keeps "common component C(ℓ)·aaᵀ + noise" exactly of that form.
  */
 function covarianceAt(cov: BandCovariance, ell: number, scale: number, out: Float64Array): void {
   const c = cov.ellCentres;
@@ -76,13 +80,9 @@ function covarianceAt(cov: BandCovariance, ell: number, scale: number, out: Floa
   const nBins = c.length;
   let lo = 0;
   let t = 0;
-  if (ell <= (c[0] as number)) {
-    lo = 0;
-    t = 0;
-  } else if (ell >= (c[nBins - 1] as number)) {
+  if (ell >= (c[nBins - 1] as number)) {
     lo = nBins - 1;
-    t = 0;
-  } else {
+  } else if (ell > (c[0] as number)) {
     let a = 0;
     let b = nBins - 1;
     while (b - a > 1) {
@@ -100,10 +100,17 @@ function covarianceAt(cov: BandCovariance, ell: number, scale: number, out: Floa
   }
 }
 
-/** Π = P⁻¹ − P⁻¹U(UᵀP⁻¹U)⁻¹UᵀP⁻¹ for one node (see module doc). */
+/** Q = P̃⁻¹ − P̃⁻¹U(UᵀP̃⁻¹U)⁻¹UᵀP̃⁻¹ for one node (see module doc). */
 function inverseNoise(p: Float64Array, nb: number, u: Matrix | null, ell: number): Matrix {
   const P = new Matrix(nb, nb);
-  for (let i = 0; i < nb; i++) for (let j = 0; j < nb; j++) P.set(i, j, p[i * nb + j] as number);
+  for (let i = 0; i < nb; i++) {
+    for (let j = 0; j <= i; j++) {
+      const v = 0.5 * ((p[i * nb + j] as number) + (p[j * nb + i] as number));
+      if (!Number.isFinite(v)) throw new UmbraError("BAD_DATA", `band covariance is not finite at ell = ${ell.toFixed(1)} (bands ${i}, ${j})`);
+      P.set(i, j, v);
+      P.set(j, i, v);
+    }
+  }
   const chol = new CholeskyDecomposition(P);
   if (!chol.isPositiveDefinite()) {
     throw new UmbraError("BAD_DATA", `band covariance is not positive definite at ell = ${ell.toFixed(1)}`);
@@ -143,51 +150,41 @@ export function buildFilterBank(inp: FilterBankInputs): FilterBank {
     const b = (inp.beams[i] as BeamTransfer)(grid.nodeElls);
     for (let n = 0; n < nN; n++) beamNodes[n * nb + i] = b[n] as number;
   }
-  const kNodes = new Float64Array(nN * nb * nb);
   const qNodes = new Float64Array(nN * nb * nb);
   const p = new Float64Array(nb * nb);
-  const U = deproject.length > 0 ? new Matrix(nb, deproject.length) : null;
+  let U: Matrix | null = null;
+  if (deproject.length > 0) {
+    U = new Matrix(nb, deproject.length);
+    for (let k = 0; k < deproject.length; k++) for (let i = 0; i < nb; i++) U.set(i, k, (deproject[k] as Float64Array)[i] as number);
+  }
+  const scale = 1 / (geometry.dxRad * geometry.dyRad);
   for (let n = 0; n < nN; n++) {
     const ell = grid.nodeElls[n] as number;
-    covarianceAt(inp.covariance, ell, 1 / (geometry.dxRad * geometry.dyRad), p);
-    if (U !== null) {
-      for (let k = 0; k < deproject.length; k++) {
-        const sed = deproject[k] as Float64Array;
-        for (let i = 0; i < nb; i++) U.set(i, k, (sed[i] as number) * (beamNodes[n * nb + i] as number));
-      }
-    }
-    const Pi = inverseNoise(p, nb, U, ell);
-    for (let i = 0; i < nb; i++) {
-      const bi = beamNodes[n * nb + i] as number;
-      for (let j = 0; j < nb; j++) {
-        const kij = bi * Pi.get(i, j);
-        kNodes[(n * nb + i) * nb + j] = kij;
-        qNodes[(n * nb + i) * nb + j] = kij * (beamNodes[n * nb + j] as number);
-      }
-    }
+    covarianceAt(inp.covariance, ell, scale, p);
+    const Q = inverseNoise(p, nb, U, ell);
+    for (let i = 0; i < nb; i++) for (let j = 0; j < nb; j++) qNodes[(n * nb + i) * nb + j] = Q.get(i, j);
   }
-  // pre-whitened spectra E = K(ℓ) M, K interpolated between nodes
+  // pre-whitened spectra E = Q(ℓ) (M / B), beams exact per mode, Q interpolated between nodes
   const nm = layout.modeCount;
-  const whitened = inp.spectra.map(() => new Float64Array(layout.spectrumLength));
+  const whitened = deconvolveBeams(inp.spectra, inp.beams, inp.ells);
   const re = new Float64Array(nb);
   const im = new Float64Array(nb);
   const nb2 = nb * nb;
   for (let m = 0; m < nm; m++) {
     for (let i = 0; i < nb; i++) {
-      const s = inp.spectra[i] as Float64Array;
+      const s = whitened[i] as Float64Array;
       re[i] = s[2 * m] as number;
       im[i] = s[2 * m + 1] as number;
     }
-    const n0 = grid.index[m] as number;
-    const t = grid.frac[m] as number;
-    const o0 = n0 * nb2;
+    const o0 = (grid.index[m] as number) * nb2;
     const o1 = o0 + nb2;
+    const t = grid.frac[m] as number;
     for (let i = 0; i < nb; i++) {
       let ar = 0;
       let ai = 0;
       for (let j = 0; j < nb; j++) {
         const q = i * nb + j;
-        const k = (kNodes[o0 + q] as number) * (1 - t) + (kNodes[o1 + q] as number) * t;
+        const k = (qNodes[o0 + q] as number) * (1 - t) + (qNodes[o1 + q] as number) * t;
         ar += k * (re[j] as number);
         ai += k * (im[j] as number);
       }

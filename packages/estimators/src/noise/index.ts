@@ -1,3 +1,3 @@
 export type { BandCovariance } from "./types.js";
-export { estimateBandCovariance, adaptiveBinEdges } from "./estimate.js";
+export { estimateBandCovariance, adaptiveBinEdges, deconvolveBeams, MIN_BEAM_TRANSFER, BLIND_NOISE } from "./estimate.js";
 export type { CovarianceOptions } from "./estimate.js";

@@ -8,7 +8,11 @@
  * apodisation window (the usual pseudo-spectrum normalisation; common practice, no source).
  */
 
-/** A binned band covariance P_ij(ℓ) with its quality figures. */
+/**
+ * A binned, beam-deconvolved band covariance C̃_ij(ℓ) (the covariance of the maps divided by their
+ * beams in Fourier space) with its quality figures. The covariance of the maps themselves is
+ * B_i(ℓ) C̃_ij(ℓ) B_j(ℓ).
+ */
 export interface BandCovariance {
   /** Number of bands (matrix side). */
   readonly nBands: number;
@@ -20,7 +24,7 @@ export interface BandCovariance {
   readonly values: Float64Array;
   /** Hermitian-weighted number of Fourier modes in each bin (full-plane count). */
   readonly modeCounts: Float64Array;
-  /** Condition number (largest / smallest eigenvalue) of each bin's matrix after regularisation. */
+  /** Condition number (largest / smallest eigenvalue) of each bin's correlation matrix after regularisation. */
   readonly conditionNumbers: Float64Array;
   /** Diagonal loading added to each bin (fraction of each diagonal element; 0 when none was needed). */
   readonly loading: Float64Array;

@@ -1,0 +1,10 @@
+export { measureClusters, yOverY0Arcmin2, DEFAULT_SCAN_SIZES_ARCMIN } from "./measure.js";
+export type { CatalogueCluster, ClusterPhysics, SedProvider, MeasureOptions, ScanPoint, ClusterMeasurement, MeasureDiagnostics, MeasureResult } from "./types.js";
+export { prepareStack } from "./prepare.js";
+export type { PrepareOptions, PreparedStack } from "./prepare.js";
+export { paintClusters } from "./model.js";
+export type { PaintedCluster } from "./model.js";
+export { positionFlags, FATAL_FLAGS } from "./flags.js";
+export type { ClusterFlag } from "./flags.js";
+export { randomPositionScatter, randomAllowedMask, robustSigma } from "./randoms.js";
+export type { RandomScatter } from "./randoms.js";

@@ -1,0 +1,304 @@
+/**
+ * Forced photometry with the multi-frequency matched filter at catalogue positions, with the
+ * noise + foreground covariance estimated from the maps and cleaned iteratively of the clusters
+ * (first-pass fit of every catalogued cluster subtracted, covariance re-estimated, clusters
+ * re-fitted, until the fits change by less than `tolerance` σ; Zubeldia, Chluba & Battye 2023,
+ * MNRAS 522, 5123, from memory). The fit itself: ../mmf/fit.ts (Herranz et al. 2002, MNRAS 336,
+ * 1057; Melin, Bartlett & Delabrouille 2006, A&A 459, 341).
+ */
+import { ARCMIN2_PER_SR, RAD_PER_ARCMIN, UmbraError, createRng } from "@umbra/core";
+import { worldToPixel } from "@umbra/maps";
+import { buildFilterBank, type FilterBank } from "../mmf/bank.js";
+import { createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
+import { prepareSedFilter } from "../mmf/filteredMap.js";
+import { tabulateProfile, type ProfileTable } from "../mmf/profile.js";
+import { deconvolveBeams, estimateBandCovariance } from "../noise/estimate.js";
+import type { BandCovariance } from "../noise/types.js";
+import type { BandStack } from "../stack/types.js";
+import { FATAL_FLAGS, positionFlags, type ClusterFlag } from "./flags.js";
+import { paintClusters, type PaintedCluster } from "./model.js";
+import { prepareStack, type PreparedStack } from "./prepare.js";
+import { randomAllowedMask, randomPositionScatter, type RandomScatter } from "./randoms.js";
+import type { CatalogueCluster, ClusterMeasurement, MeasureOptions, MeasureResult, ScanPoint } from "./types.js";
+
+/** Electron rest energy m_e c² in keV (CODATA 2018). */
+const ME_C2_KEV = 510.99895;
+/** Speed of light in km/s (exact, SI definition). */
+const C_KMS = 299792.458;
+
+/** Default scan: 15 sizes log-spaced from 0.5 to 10 arcmin. */
+export const DEFAULT_SCAN_SIZES_ARCMIN: readonly number[] = Array.from({ length: 15 }, (_, i) => 0.5 * Math.pow(20, i / 14));
+
+interface Target {
+  readonly c: CatalogueCluster;
+  readonly px: number;
+  readonly py: number;
+  readonly thetaArcmin: number | null;
+  readonly thetaSource: "catalog" | "mass" | "scan";
+  readonly teKeV: number;
+  readonly flags: ClusterFlag[];
+  readonly seds: Float64Array[];
+}
+
+interface TargetFit {
+  thetaArcmin: number;
+  amplitudes: Float64Array;
+  covariance: Float64Array;
+  scan: ScanPoint[] | null;
+}
+
+function resolveTargets(stack: BandStack, prep: PreparedStack, clusters: readonly CatalogueCluster[], opts: MeasureOptions): Target[] {
+  const wcs = stack.wcs;
+  if (wcs === null) throw new UmbraError("BAD_DATA", "the band maps carry no celestial WCS: cannot place catalogue positions");
+  const pixArcmin = Math.sqrt(stack.geometry.dxRad * stack.geometry.dyRad) / RAD_PER_ARCMIN;
+  const maxBeam = Math.max(...stack.bands.map((b) => b.beamFwhmArcmin));
+  const relativistic = opts.relativistic ?? true;
+  const sedCache = new Map<number, Float64Array>();
+  const tsz = (kte: number): Float64Array => {
+    let s = sedCache.get(kte);
+    if (s === undefined) {
+      s = opts.seds.tsz(kte);
+      sedCache.set(kte, s);
+    }
+    return s;
+  };
+  return clusters.map((c) => {
+    const flags: ClusterFlag[] = [];
+    const pos = Number.isFinite(c.raDeg) && Number.isFinite(c.decDeg) ? worldToPixel(wcs, c.raDeg, c.decDeg) : { ix: NaN, iy: NaN };
+    let thetaArcmin: number | null = null;
+    let thetaSource: Target["thetaSource"] = "scan";
+    const hasMass = c.m500Msun != null && c.z != null && (c.m500Msun as number) > 0 && (c.z as number) > 0;
+    if (c.theta500Arcmin != null && (c.theta500Arcmin as number) > 0) {
+      thetaArcmin = c.theta500Arcmin as number;
+      thetaSource = "catalog";
+    } else if (hasMass && opts.physics?.theta500ArcminFromMass !== undefined) {
+      thetaArcmin = opts.physics.theta500ArcminFromMass(c.m500Msun as number, c.z as number);
+      thetaSource = "mass";
+    }
+    let teKeV = 0;
+    if (relativistic) {
+      if (c.teKeV != null && (c.teKeV as number) > 0) teKeV = c.teKeV as number;
+      else if (hasMass && opts.physics?.temperatureKeVFromMass !== undefined) teKeV = opts.physics.temperatureKeVFromMass(c.m500Msun as number, c.z as number);
+    }
+    const radiusArcmin = Math.max(thetaArcmin ?? 2, maxBeam);
+    flags.push(...positionFlags(pos.ix, pos.iy, radiusArcmin / pixArcmin, stack.nx, stack.ny, prep.window, prep.inpainted));
+    const seds = [tsz(teKeV)];
+    if (opts.fitKsz === true) seds.push(opts.seds.ksz());
+    return { c, px: pos.ix, py: pos.iy, thetaArcmin, thetaSource, teKeV, flags, seds };
+  });
+}
+
+function isFatal(flags: readonly ClusterFlag[]): boolean {
+  return flags.some((f) => FATAL_FLAGS.includes(f));
+}
+
+function fitTarget(bank: FilterBank, table: ProfileTable, t: Target, scanSizes: readonly number[], scratch: ReturnType<typeof createFitScratch>): TargetFit {
+  const nodeTable = sedNodeTable(bank, t.seds);
+  const at = (thetaArcmin: number) => fitAtPosition(bank, table, thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratch, nodeTable);
+  if (t.thetaArcmin !== null) {
+    const f = at(t.thetaArcmin);
+    return { thetaArcmin: t.thetaArcmin, amplitudes: f.amplitudes, covariance: f.covariance, scan: null };
+  }
+  const nc = t.seds.length;
+  let best: TargetFit | null = null;
+  let bestSnr = -Infinity;
+  const scan: ScanPoint[] = [];
+  for (const th of scanSizes) {
+    const f = at(th);
+    const y0 = f.amplitudes[0] as number;
+    const err = Math.sqrt(f.covariance[0] as number);
+    const area = yOverY0Arcmin2(table, th);
+    scan.push({ theta500Arcmin: th, y0, y0Err: err, yArcmin2: y0 * area, yErrArcmin2: err * area, snr: y0 / err });
+    if (y0 / err > bestSnr) {
+      bestSnr = y0 / err;
+      best = { thetaArcmin: th, amplitudes: f.amplitudes, covariance: f.covariance, scan };
+    }
+  }
+  void nc;
+  return best as TargetFit;
+}
+
+/** Y5R500/y0 in arcmin² for θ500 in arcmin: θ500² g(0) (g(0) in units of the scale², see ../mmf/profile.ts). */
+export function yOverY0Arcmin2(table: ProfileTable, thetaArcmin: number): number {
+  return thetaArcmin * thetaArcmin * table.integralUnitScale;
+}
+
+function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[], scanSizes: readonly number[]): (TargetFit | null)[] {
+  const scratch = createFitScratch(bank);
+  return targets.map((t) => {
+    if (isFatal(t.flags)) return null;
+    try {
+      return fitTarget(bank, table, t, scanSizes, scratch);
+    } catch (e) {
+      if (e instanceof UmbraError && e.code === "BAD_DATA") return null;
+      throw e;
+    }
+  });
+}
+
+function painted(targets: readonly Target[], fits: readonly (TargetFit | null)[], nb: number): PaintedCluster[] {
+  const out: PaintedCluster[] = [];
+  targets.forEach((t, k) => {
+    const f = fits[k];
+    if (f == null) return;
+    const amp = new Float64Array(nb);
+    t.seds.forEach((sed, c) => {
+      for (let i = 0; i < nb; i++) amp[i] += (f.amplitudes[c] as number) * (sed[i] as number);
+    });
+    out.push({ px: t.px, py: t.py, thetaRad: f.thetaArcmin * RAD_PER_ARCMIN, bandAmplitudes: amp });
+  });
+  return out;
+}
+
+/**
+ * Measure y0, Y5R500 and their errors for every catalogue cluster (see module doc). A cluster off
+ * the map, on a masked area or too near the edge is flagged and gets NaNs; the others go on.
+ */
+export function measureClusters(stack: BandStack, clusters: readonly CatalogueCluster[], opts: MeasureOptions): MeasureResult {
+  const prep = prepareStack(stack, { apodisationArcmin: opts.apodisationArcmin });
+  const targets = resolveTargets(stack, prep, clusters, opts);
+  const scanSizes = opts.scanSizesArcmin ?? DEFAULT_SCAN_SIZES_ARCMIN;
+  for (const s of scanSizes) if (!(s > 0)) throw new UmbraError("BAD_OPTION", `scan size ${s} arcmin must be > 0`, { field: "scanSizesArcmin" });
+  let thetaMax = Math.max(...scanSizes);
+  for (const t of targets) if (t.thetaArcmin !== null && Number.isFinite(t.thetaArcmin)) thetaMax = Math.max(thetaMax, t.thetaArcmin);
+  let ellMax = 0;
+  for (const l of prep.ells) if (l > ellMax) ellMax = l;
+  const table = tabulateProfile(opts.profile, ellMax * thetaMax * RAD_PER_ARCMIN * 1.01 + 1);
+  const beams = stack.bands.map((b) => b.beam);
+  const names = stack.bands.map((b) => b.name);
+  const covFrom = (spectra: readonly Float64Array[]): BandCovariance =>
+    estimateBandCovariance(deconvolveBeams(spectra, beams, prep.ells), prep.plan.layout, stack.geometry, prep.ells, { windowMeanSquare: prep.windowMeanSquare, bandNames: names, ...opts.covarianceOptions });
+  const bankFor = (cov: BandCovariance, spectra: readonly Float64Array[] = prep.spectra): FilterBank =>
+    buildFilterBank({ layout: prep.plan.layout, geometry: stack.geometry, ells: prep.ells, spectra, beams, covariance: cov, deproject: opts.deproject });
+  let cov = opts.noiseCovariance ?? covFrom(prep.spectra);
+  let bank = bankFor(cov);
+  let fits = fitAll(bank, table, targets, scanSizes);
+  let iterations = 0;
+  let lastChange = NaN;
+  if (opts.noiseCovariance === undefined) {
+    const maxIt = opts.maxIterations ?? 4;
+    const tol = opts.tolerance ?? 0.02;
+    for (let it = 0; it < maxIt; it++) {
+      const cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits, stack.bands.length), -1);
+      cov = covFrom(cleaned);
+      bank = bankFor(cov);
+      const next = fitAll(bank, table, targets, scanSizes);
+      lastChange = 0;
+      next.forEach((f, k) => {
+        const o = fits[k];
+        if (f == null || o == null) return;
+        const d = Math.abs((f.amplitudes[0] as number) - (o.amplitudes[0] as number)) / Math.sqrt(f.covariance[0] as number);
+        if (d > lastChange) lastChange = d;
+      });
+      fits = next;
+      iterations = it + 1;
+      if (lastChange < tol) break;
+    }
+  }
+  // random positions on the cluster-subtracted maps, so that no catalogued cluster's wings enter
+  const randoms = (opts.randomCount ?? 300) > 0
+    ? randomErrors(prep, bankFor(cov, paintClusters(bank, table, prep.spectra, painted(targets, fits, stack.bands.length), -1)), table, targets, fits, opts)
+    : [];
+  const results = targets.map((t, k) => toMeasurement(t, fits[k] ?? null, table, randoms, opts));
+  return {
+    clusters: results,
+    diagnostics: {
+      iterations,
+      lastChangeSigma: lastChange,
+      maxConditionNumber: Math.max(...cov.conditionNumbers),
+      loadedBins: cov.loading.filter((x) => x > 0).length,
+      randomScatter: randoms.map((r) => ({ thetaArcmin: r.thetaRad / RAD_PER_ARCMIN, sigmaAnalytic: r.sigmaAnalytic, sigmaRandom: r.sigmaRandom, count: r.count })),
+      covarianceSource: opts.noiseCovariance === undefined ? "data" : "simulations",
+    },
+  };
+}
+
+function randomErrors(prep: PreparedStack, bank: FilterBank, table: ProfileTable, targets: readonly Target[], fits: readonly (TargetFit | null)[], opts: MeasureOptions): RandomScatter[] {
+  const count = opts.randomCount ?? 300;
+  if (count <= 0) return [];
+  const thetas = fits.filter((f): f is TargetFit => f !== null).map((f) => f.thetaArcmin);
+  if (thetas.length === 0) return [];
+  const lo = Math.min(...thetas);
+  const hi = Math.max(...thetas);
+  const n = hi > lo * 1.01 ? 6 : 1;
+  const grid = Array.from({ length: n }, (_, i) => (n === 1 ? lo : lo * Math.pow(hi / lo, i / (n - 1))) * RAD_PER_ARCMIN);
+  const { nx, ny, geometry } = prep.stack;
+  const pixArcmin = Math.sqrt(geometry.dxRad * geometry.dyRad) / RAD_PER_ARCMIN;
+  const allowed = randomAllowedMask(nx, ny, prep.window, prep.inpainted, targets, (opts.exclusionArcmin ?? 10) / pixArcmin);
+  const filter = prepareSedFilter(bank, opts.seds.tsz(0));
+  return randomPositionScatter(bank, prep.plan, table, filter, grid, allowed, count, createRng(opts.seed ?? 1).fork("random-positions"));
+}
+
+/** σ_random at θ: log-log interpolation of the random-position grid, scaled by the cluster's own analytic/grid-analytic ratio. */
+function randomSigmaAt(randoms: readonly RandomScatter[], thetaRad: number): { ratio: number } {
+  if (randoms.length === 0) return { ratio: NaN };
+  const r = randoms.map((x) => x.sigmaRandom / x.sigmaAnalytic);
+  if (randoms.length === 1) return { ratio: r[0] as number };
+  const lt = Math.log(thetaRad);
+  const ls = randoms.map((x) => Math.log(x.thetaRad));
+  let k = 0;
+  while (k < ls.length - 2 && lt > (ls[k + 1] as number)) k++;
+  const t = Math.min(1, Math.max(0, (lt - (ls[k] as number)) / ((ls[k + 1] as number) - (ls[k] as number))));
+  return { ratio: (r[k] as number) * (1 - t) + (r[k + 1] as number) * t };
+}
+
+function toMeasurement(t: Target, f: TargetFit | null, table: ProfileTable, randoms: readonly RandomScatter[], opts: MeasureOptions): ClusterMeasurement {
+  const flags = [...t.flags];
+  const base = { id: t.c.id, raDeg: t.c.raDeg, decDeg: t.c.decDeg, px: t.px, py: t.py, teKeVUsed: t.teKeV };
+  if (f === null) {
+    if (!isFatal(flags)) flags.push("fit_failed");
+    return {
+      ...base, theta500Arcmin: t.thetaArcmin ?? NaN, thetaSource: t.thetaArcmin === null ? "none" : t.thetaSource,
+      y0: NaN, y0Err: NaN, yArcmin2: NaN, yErrArcmin2: NaN, snr: NaN, y0ErrRandom: NaN,
+      vLosKms: NaN, vLosErrKms: NaN, yMpc2: NaN, yErrMpc2: NaN, m500Msun: NaN, m500ErrMsun: NaN, flags, scan: null,
+    };
+  }
+  const y0 = f.amplitudes[0] as number;
+  const y0Err = Math.sqrt(f.covariance[0] as number);
+  const area = yOverY0Arcmin2(table, f.thetaArcmin);
+  const yArcmin2 = y0 * area;
+  const yErrArcmin2 = y0Err * area;
+  if (f.scan !== null) {
+    const th = f.scan.map((s) => s.theta500Arcmin);
+    if (f.thetaArcmin === th[0] || f.thetaArcmin === th[th.length - 1]) flags.push("scan_edge");
+  }
+  let vLosKms = NaN;
+  let vLosErrKms = NaN;
+  if (opts.fitKsz === true) {
+    if (t.teKeV > 0) {
+      // a_k = τ_e0 v/c with τ_e0 = y0 m_e c²/kTe (isothermal: y = (kTe/m_e c²) τ); linearised errors
+      const a = f.amplitudes[1] as number;
+      const dvda = (C_KMS * t.teKeV) / (ME_C2_KEV * y0);
+      vLosKms = a * dvda;
+      const dvdy = -vLosKms / y0;
+      const nc = 2;
+      const vyy = f.covariance[0] as number;
+      const vaa = f.covariance[nc + 1] as number;
+      const vya = f.covariance[1] as number;
+      vLosErrKms = Math.sqrt(dvda * dvda * vaa + dvdy * dvdy * vyy + 2 * dvda * dvdy * vya);
+    } else flags.push("no_temperature");
+  }
+  let yMpc2 = NaN;
+  let yErrMpc2 = NaN;
+  let m500Msun = NaN;
+  let m500ErrMsun = NaN;
+  const z = t.c.z;
+  if (z != null && z > 0 && opts.physics?.angularDiameterDistanceMpc !== undefined) {
+    const da = opts.physics.angularDiameterDistanceMpc(z);
+    const mpc2PerArcmin2 = (da * RAD_PER_ARCMIN) ** 2;
+    yMpc2 = yArcmin2 * mpc2PerArcmin2;
+    yErrMpc2 = yErrArcmin2 * mpc2PerArcmin2;
+    if (opts.physics.massFromY !== undefined && yMpc2 > 0) {
+      const m = opts.physics.massFromY(yMpc2, yErrMpc2, z);
+      m500Msun = m.m500Msun;
+      m500ErrMsun = m.m500ErrMsun;
+    }
+  }
+  const { ratio } = randomSigmaAt(randoms, f.thetaArcmin * RAD_PER_ARCMIN);
+  void ARCMIN2_PER_SR;
+  return {
+    ...base, theta500Arcmin: f.thetaArcmin, thetaSource: t.thetaSource,
+    y0, y0Err, yArcmin2, yErrArcmin2, snr: y0 / y0Err, y0ErrRandom: ratio * y0Err,
+    vLosKms, vLosErrKms, yMpc2, yErrMpc2, m500Msun, m500ErrMsun, flags, scan: f.scan,
+  };
+}

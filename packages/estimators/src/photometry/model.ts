@@ -1,0 +1,64 @@
+/**
+ * Paint fitted clusters into band spectra (Fourier space, exact at fractional positions):
+ * M_i[k] += s_i · B_i(ℓ) τ̃(ℓ; θ) e^{−2πi k·x0} / Ω_pix with s_i = Σ_c a_c A_ic the fitted SED
+ * amplitudes. Used to remove the clusters before re-estimating the covariance (Zubeldia et al.
+ * 2023, MNRAS 522, 5123, sec. 3: iterative noise estimation).
+ */
+import type { FilterBank } from "../mmf/bank.js";
+import { profileAt, type ProfileTable } from "../mmf/profile.js";
+
+/** One cluster to paint: pixel position, scale and per-band amplitude (K_CMB at the centre before the beam). */
+export interface PaintedCluster {
+  readonly px: number;
+  readonly py: number;
+  readonly thetaRad: number;
+  readonly bandAmplitudes: Float64Array;
+}
+
+/** Add `sign` × every cluster's template to copies of `spectra`; returns the new spectra. */
+export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: readonly Float64Array[], clusters: readonly PaintedCluster[], sign = 1): Float64Array[] {
+  const out = spectra.map((s) => Float64Array.from(s));
+  const nb = bank.nBands;
+  const { nx, ny } = bank.geometry;
+  const { kxIndex, kyIndex, modeCount } = bank.layout;
+  const { index, frac } = bank.grid;
+  const bn = bank.beamNodes;
+  const ex = new Float64Array(2 * nx);
+  const ey = new Float64Array(2 * ny);
+  for (const c of clusters) {
+    for (let k = 0; k <= nx >> 1; k++) {
+      const a = (-2 * Math.PI * k * c.px) / nx;
+      ex[2 * k] = Math.cos(a);
+      ex[2 * k + 1] = Math.sin(a);
+    }
+    for (let k = 0; k < ny; k++) {
+      const ks = k <= ny >> 1 ? k : k - ny;
+      const a = (-2 * Math.PI * ks * c.py) / ny;
+      ey[2 * k] = Math.cos(a);
+      ey[2 * k + 1] = Math.sin(a);
+    }
+    const th2 = (sign * c.thetaRad * c.thetaRad) / bank.pixelSr;
+    for (let m = 0; m < modeCount; m++) {
+      const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * th2;
+      if (g === 0) continue;
+      const kx = kxIndex[m] as number;
+      let ky = kyIndex[m] as number;
+      if (ky < 0) ky += ny;
+      const xr = ex[2 * kx] as number;
+      const xi = ex[2 * kx + 1] as number;
+      const yr = ey[2 * ky] as number;
+      const yi = ey[2 * ky + 1] as number;
+      const pr = (xr * yr - xi * yi) * g;
+      const pi = (xr * yi + xi * yr) * g;
+      const n0 = (index[m] as number) * nb;
+      const t = frac[m] as number;
+      for (let i = 0; i < nb; i++) {
+        const b = ((bn[n0 + i] as number) * (1 - t) + (bn[n0 + nb + i] as number) * t) * (c.bandAmplitudes[i] as number);
+        const s = out[i] as Float64Array;
+        s[2 * m] += b * pr;
+        s[2 * m + 1] += b * pi;
+      }
+    }
+  }
+  return out;
+}

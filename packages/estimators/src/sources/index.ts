@@ -1,0 +1,2 @@
+export { inpaintHarmonic } from "./inpaint.js";
+export type { InpaintOptions } from "./inpaint.js";

@@ -1,0 +1,1 @@
+export type { BandStack, StackBand, InputFile } from "./types.js";

@@ -35,7 +35,7 @@ interface SedJson {
 }
 
 describe("umbra sed", () => {
-  it("prints the non-relativistic tSZ per unit y in K_CMB as JSON: T0 (x coth(x/2) − 4) (Birkinshaw 1999, eq. 71)", async () => {
+  it("prints the non-relativistic tSZ per unit y in K_CMB as JSON: T0 (x coth(x/2) − 4) (Birkinshaw 1999, Phys. Rep. 310, 97)", async () => {
     expect(await run(["sed", "--component", "tsz", "--freq", "90,150,220", "--json"])).toBe(0);
     const j = JSON.parse(out) as SedJson;
     expect(j.component).toBe("tsz");

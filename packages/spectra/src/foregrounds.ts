@@ -38,7 +38,7 @@ export function dustSpectrum(beta: number, temperatureK: number, refFrequencyGHz
 /**
  * CIB-like spectrum per MJy/sr at ν0: a modified blackbody of rest-frame temperature T_d emitted at
  * effective redshift z, observed as (ν(1+z))^β B_{ν(1+z)}(T_d) ∝ ν^β B_ν(T_d/(1+z)) up to a constant
- * (e.g. Planck Collaboration 2014, A&A 571, A30, eq. 11 without its mid-IR power law).
+ * (common practice, no source).
  */
 export function cibSpectrum(beta: number, temperatureK: number, redshift: number, refFrequencyGHz: number): (frequencyGHz: number) => number {
   if (!Number.isFinite(redshift) || redshift < 0) throw new UmbraError("BAD_VALUE", `redshift = ${String(redshift)} must be ≥ 0`, { field: "redshift", value: redshift });

@@ -92,7 +92,7 @@ export function tszItohExpansion(frequencyGHz: number, kTeKeV: number, order = 4
 
 /**
  * Crossover (null) of the relativistic tSZ in x = hν/k_BT0:
- * x0 = 3.830 (1 + 1.1674 θe − 0.8533 θe²) (Itoh, Kohyama & Nozawa 1998, ApJ 502, 7, eq. 2.31).
+ * x0 = 3.830 (1 + 1.1674 θe − 0.8533 θe²) (Itoh, Kohyama & Nozawa 1998, ApJ 502, 7, their crossover fit).
  */
 export function tszCrossoverItoh(kTeKeV: number): number {
   const th = thetaFromKeV(kTeKeV);

@@ -6,7 +6,7 @@
  * outgoing μ' (both in the electron frame's reference axis), has its log-frequency shifted by
  * s = ln[(1 + βμ')/(1 − βμ)]. Wright's single-scattering redistribution
  *   P(s; β) = 3/(16γ⁴β) ∫ dμ (1 + βμ')(1 + μ²μ'² + ½(1 − μ²)(1 − μ'²)) (1 − βμ)⁻³
- * (Wright 1979, eqs. 4–6; also Birkinshaw 1999, Phys. Rep. 310, 97, eqs. 51–53), after the change
+ * (Wright 1979, from memory; also Birkinshaw 1999, Phys. Rep. 310, 97; equation numbers not checked), after the change
  * of variable s → μ' (ds = β dμ'/(1 + βμ')), becomes a smooth integral over the square
  * (μ, μ') ∈ [−1, 1]², with total probability exactly one. Averaging over the Maxwell–Jüttner
  * distribution p² exp(−γ/θ) dp / (θ K₂(1/θ)) (p = γβ; Jüttner 1911) and applying

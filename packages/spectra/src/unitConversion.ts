@@ -3,8 +3,8 @@
  *
  * A map value v in unit U stands for the sky spectrum v·R_U(ν), where (all in MJy/sr per unit):
  * K_CMB: R = dB/dT at T0 (a CMB blackbody fluctuation); µK_CMB: 1e-6 of that; K_RJ: R = 2k_Bν²/c²
- * (Rayleigh–Jeans); MJy/sr: R = ν_ref/ν (the IRAS ν⁻¹ convention, Beichman et al. 1988, IRAS
- * Explanatory Supplement, §VI.C.3; quoted at the band's reference frequency); Jy/beam: the MJy/sr
+ * (Rayleigh–Jeans); MJy/sr: R = ν_ref/ν (the IRAS ν⁻¹ convention, Beichman et al. 1988, IRAS Explanatory Supplement;
+ * quoted at the band's reference frequency); Jy/beam: the MJy/sr
  * reference times 1e-6/Ω_beam. A band reads a sky spectrum S as ∫τS dν / ∫τR_U dν.
  */
 import { UmbraError, isMapUnit } from "@umbra/core";

@@ -24,7 +24,7 @@ describe("componentResponse", () => {
     expect(componentResponse({ kind: "ksz" }, asym, "K_CMB")).toAllClose(-T0_K, { rtol: 1e-14 });
     expect(componentResponse({ kind: "ksz" }, { frequencyGHz: 90 }, "K_CMB")).toAllClose(-T0_K, { rtol: 1e-15 });
   });
-  it("non-relativistic tSZ at 150 GHz is T0 (x coth(x/2) − 4) K_CMB per y (Birkinshaw 1999, Phys. Rep. 310, 97, eq. 71)", () => {
+  it("non-relativistic tSZ at 150 GHz is T0 (x coth(x/2) − 4) K_CMB per y (Birkinshaw 1999, Phys. Rep. 310, 97; equation numbers not checked)", () => {
     const x = dimensionlessFrequency(150);
     expect(componentResponse({ kind: "tsz" }, { frequencyGHz: 150 }, "K_CMB")).toAllClose(T0_K * (x / Math.tanh(x / 2) - 4), { rtol: 1e-14 });
   });

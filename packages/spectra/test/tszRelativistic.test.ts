@@ -23,7 +23,7 @@ describe("exact relativistic tSZ (Wright 1979 single scattering)", () => {
   it("tends to the Kompaneets shape x coth(x/2) − 4 as kTe → 0 (Sunyaev & Zel'dovich 1972), exactly at kTe = 0", () => {
     const nr = XS.map((x) => tszShape(x));
     expect(tszRelativisticShapeExact(XS, 0)).toAllClose(nr, { rtol: 0 });
-    // at 1 eV the first-order series Y0 + θY1 (Itoh et al. 1998, eq. 2.27) is exact to ~θ² ≈ 4e-12
+    // at 1 eV the first-order series Y0 + θY1 (Itoh et al. 1998, eqs. 2.25–2.27) is exact to ~θ² ≈ 4e-12
     const th = thetaFromKeV(0.001);
     const first = XS.map((x) => itohCoefficients(x)[0] + th * itohCoefficients(x)[1]);
     expect(tszRelativisticShapeExact(XS, 0.001)).toAllClose(first, { rtol: 1e-6 });
@@ -60,7 +60,7 @@ describe("exact relativistic tSZ (Wright 1979 single scattering)", () => {
     const x = Float64Array.of(0.01);
     expect(tszRelativisticShapeExact(x, 2)[0]).toAllClose(-2 * (1 - 1.7 * th + 3.075 * th * th), { rtol: 1e-5 });
   });
-  it("moves the crossover as x0 = 3.830(1 + 1.1674θ − 0.8533θ²) (Itoh, Kohyama & Nozawa 1998, eq. 2.31) to 1e-3 in x at 2–30 keV", () => {
+  it("moves the crossover as x0 = 3.830(1 + 1.1674θ − 0.8533θ²) (Itoh, Kohyama & Nozawa 1998, ApJ 502, 7, their crossover fit) to 1e-3 in x at 2–30 keV", () => {
     for (const kte of [2, 5, 10, 20, 30]) {
       let a = 3.6;
       let b = 5.2;

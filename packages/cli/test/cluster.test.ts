@@ -98,7 +98,7 @@ describe("umbra cluster", () => {
     expect(cos.err).toMatch(/unknown cosmology preset 'lcdm-best'/);
     const prof = await capture(["cluster", "--m500", "6e14", "--z", "0.5", "--profile", "xyz"]);
     expect(prof.code).toBe(2);
-    expect(prof.err).toMatch(/unknown profile 'xyz'/);
+    expect(prof.err).toMatch(/unknown profile parameter set 'xyz'/);
     const nan = await capture(["cluster", "--m500", "lots", "--z", "0.5"]);
     expect(nan.code).toBe(2);
     expect(nan.err).toMatch(/--m500 'lots' is not a number/);

@@ -10,6 +10,7 @@ import {
   clusterScale,
   cosmologyPreset,
   gnfwA10,
+  gnfwParameterSet,
   mpc2ToArcmin2At,
   temperatureFromMassKeV,
   y5r500Arcmin2,
@@ -75,8 +76,8 @@ function parseNumber(name: string, text: string): number {
 }
 
 function profileFor(name: string, m500Msun: number, h70: number, alphaPPrime: boolean): PressureProfile {
-  if (name !== "a10") throw new UmbraError("BAD_VALUE", `unknown profile '${name}' (known: a10)`, { field: "profile", value: name });
-  return gnfwA10({ m500Msun, h70, alphaPPrime });
+  const params = gnfwParameterSet(name); // BAD_VALUE naming an unknown set
+  return gnfwA10({ m500Msun, h70, alphaPPrime, params, ...(name === "a10" ? {} : { label: name }) });
 }
 
 /** Compute the summary for one cluster (exported for tests and other commands). */
@@ -176,7 +177,7 @@ export function register(program: Command): void {
     .requiredOption("--m500 <msun>", "M500 (critical) in solar masses, e.g. 6e14")
     .requiredOption("--z <redshift>", "redshift (> 0)")
     .option("--cosmology <name>", "cosmology preset: concordance | cmb2018", "concordance")
-    .option("--profile <name>", "pressure profile: a10 (Arnaud et al. 2010 universal profile)", "a10")
+    .option("--profile <name>", "pressure profile: a10 (Arnaud et al. 2010 universal), a10-cool-core, a10-disturbed", "a10")
     .option("--alpha-p-prime", "add the A10 radius-dependent mass term alpha'_P(x)")
     .option("--bands <GHz,...>", "comma-separated band centres in GHz for the expected tSZ signal")
     .option("--kte <keV>", "electron temperature for the relativistic tSZ (default: from the M-T relation)")

@@ -2,7 +2,7 @@
  * Spherical-overdensity sizes: a halo of mass M_Δ has mean density Δ·ρ_c(z) inside R_Δ, so
  * M_Δ = (4π/3) Δ ρ_c(z) R_Δ³ (e.g. Arnaud et al. 2010, A&A 517, A92, Sect. 2: M500 with Δ = 500).
  */
-import { ARCMIN2_PER_SR, requireFinite, radToArcmin } from "@umbra/core";
+import { ARCMIN2_PER_SR, arcminToRad, requireFinite, radToArcmin } from "@umbra/core";
 import { requireRedshift } from "./create.js";
 import type { Cosmology } from "./types.js";
 
@@ -34,6 +34,13 @@ export function theta500Rad(m500Msun: number, z: number, cosmo: Cosmology): numb
 /** θ500 in arcmin: R500 / D_A(z) (small-angle). z must be > 0. */
 export function theta500Arcmin(m500Msun: number, z: number, cosmo: Cosmology): number {
   return radToArcmin(theta500Rad(m500Msun, z, cosmo));
+}
+
+/** M500 in M☉ of a cluster whose R500 subtends θ500 (arcmin) at redshift z > 0: R500 = θ500·D_A, then M = (4π/3)·500·ρ_c(z)·R500³. */
+export function theta500ToM500Msun(theta500Arcmin: number, z: number, cosmo: Cosmology): number {
+  requireFinite("theta500Arcmin", theta500Arcmin, (v) => v > 0, "not positive");
+  requireFinite("z", z, (v) => v > 0, "not above 0 (an angular size needs a distance)");
+  return r500ToM500Msun(arcminToRad(theta500Arcmin) * cosmo.angularDiameterDistanceMpc(z), z, cosmo);
 }
 
 /** Converts an integrated Y in Mpc² to arcmin² at redshift z: Y[arcmin²] = Y[Mpc²] / D_A² · (arcmin²/sr). */

@@ -4,7 +4,7 @@
  * and the universal profile of Arnaud et al. 2010 (A&A 517, A92; "A10") with its parameters
  * (their eq. 12), its characteristic pressure P500 (eq. 5) and its mass dependence (eqs. 9–11).
  */
-import { requireFinite } from "@umbra/core";
+import { UmbraError, requireFinite } from "@umbra/core";
 import { requireMass } from "../cosmology/overdensity.js";
 import { requireRedshift } from "../cosmology/create.js";
 import type { Cosmology } from "../cosmology/types.js";
@@ -24,6 +24,33 @@ export interface GnfwParams {
  * P0 = 8.403 h70^−3/2, c500 = 1.177, γ = 0.3081, α = 1.0510, β = 5.4905.
  */
 export const A10_UNIVERSAL: Readonly<GnfwParams> = Object.freeze({ P0: 8.403, c500: 1.177, gamma: 0.3081, alpha: 1.051, beta: 5.4905 });
+
+/** Names of the published GNFW parameter sets in {@link GNFW_PARAMETER_SETS}. */
+export type GnfwSetName = "a10" | "a10-cool-core" | "a10-disturbed";
+
+/**
+ * Published GNFW parameter sets (h70 = 1), all from Arnaud et al. 2010 (A&A 517, A92):
+ * `a10` the universal profile (eq. 12); `a10-cool-core` and `a10-disturbed` the fits to the
+ * cool-core and morphologically disturbed REXCESS sub-samples (their Appendix C; from memory of the
+ * paper: cool core P0 = 3.249, c500 = 1.128, γ = 0.7736, α = 1.2223; disturbed P0 = 3.202,
+ * c500 = 1.083, γ = 0.3798, α = 1.4063; β = 5.4905 for both).
+ */
+export const GNFW_PARAMETER_SETS: Readonly<Record<GnfwSetName, Readonly<GnfwParams>>> = Object.freeze({
+  a10: A10_UNIVERSAL,
+  "a10-cool-core": Object.freeze({ P0: 3.249, c500: 1.128, gamma: 0.7736, alpha: 1.2223, beta: 5.4905 }),
+  "a10-disturbed": Object.freeze({ P0: 3.202, c500: 1.083, gamma: 0.3798, alpha: 1.4063, beta: 5.4905 }),
+});
+
+/** The parameter set `name`; throws BAD_VALUE naming an unknown set. */
+export function gnfwParameterSet(name: string): Readonly<GnfwParams> {
+  if (!Object.prototype.hasOwnProperty.call(GNFW_PARAMETER_SETS, name)) {
+    throw new UmbraError("BAD_VALUE", `unknown profile parameter set '${name}' (known: ${Object.keys(GNFW_PARAMETER_SETS).join(", ")})`, {
+      field: "profile",
+      value: name,
+    });
+  }
+  return GNFW_PARAMETER_SETS[name as GnfwSetName];
+}
 
 /** The A10 mass-dependence slope α_P = 0.12 (Arnaud et al. 2010, eq. 7; from memory of the paper). */
 export const A10_ALPHA_P = 0.12;
@@ -64,8 +91,10 @@ export interface A10Options {
   h70?: number;
   /** Include the radius-dependent α'_P(x) term (A10 eqs. 10–11); default false. */
   alphaPPrime?: boolean;
-  /** Override the shape parameters (default {@link A10_UNIVERSAL}). */
+  /** Override the shape parameters (default {@link A10_UNIVERSAL}); e.g. a set from {@link GNFW_PARAMETER_SETS}. */
   params?: GnfwParams;
+  /** Label for reports (default names the A10 universal profile). */
+  label?: string;
 }
 
 /**
@@ -88,13 +117,14 @@ export function gnfwA10(opts: A10Options = {}): PressureProfile {
   const base = { ...(opts.params ?? A10_UNIVERSAL) };
   base.P0 = base.P0 * h70 ** -1.5;
   validate(base);
-  if (opts.m500Msun === undefined) return gnfwProfile(base, "A10 universal (no mass term)");
+  const name = opts.label ?? (opts.params === undefined ? "A10 universal" : "A10-scaled GNFW");
+  if (opts.m500Msun === undefined) return gnfwProfile(base, `${name} (no mass term)`);
   const m = requireMass(opts.m500Msun);
   const lnRatio = Math.log((m * h70) / A10_PIVOT_MSUN);
   const constFactor = Math.exp(A10_ALPHA_P * lnRatio);
   const prime = opts.alphaPPrime === true;
   return {
-    label: prime ? "A10 universal (alpha_P + alpha'_P)" : "A10 universal (alpha_P)",
+    label: prime ? `${name} (alpha_P + alpha'_P)` : `${name} (alpha_P)`,
     cuspSlope: base.gamma,
     key: `a10:${base.P0}:${base.c500}:${base.gamma}:${base.alpha}:${base.beta}:${prime ? `m${m}:h${h70}` : "flat"}:${constFactor}`,
     pressureRatio: prime

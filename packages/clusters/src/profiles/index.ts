@@ -1,6 +1,6 @@
 export type { PressureProfile } from "./types.js";
-export { A10_UNIVERSAL, A10_ALPHA_P, A10_PIVOT_MSUN, gnfwShape, gnfwProfile, gnfwA10, a10AlphaPPrime, p500KeVCm3 } from "./gnfw.js";
-export type { GnfwParams, A10Options } from "./gnfw.js";
+export { GNFW_PARAMETER_SETS, gnfwParameterSet, A10_UNIVERSAL, A10_ALPHA_P, A10_PIVOT_MSUN, gnfwShape, gnfwProfile, gnfwA10, a10AlphaPPrime, p500KeVCm3 } from "./gnfw.js";
+export type { GnfwParams, GnfwSetName, A10Options } from "./gnfw.js";
 export { betaModel } from "./beta.js";
 export type { BetaModelOptions } from "./beta.js";
 export { DEFAULT_TRUNCATION, lineOfSightIntegral, projectedShape, sphericalIntegral, cylindricalIntegral } from "./projection.js";
@@ -13,6 +13,7 @@ export {
   yCylMpc2,
   mpc2ToArcmin2At,
   y5r500Arcmin2,
+  y5r500Mpc2,
   y500Arcmin2,
   templateAreaOverY0,
   y5r500OverY0Arcmin2,

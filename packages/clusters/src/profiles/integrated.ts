@@ -78,6 +78,11 @@ export function y5r500Arcmin2(profile: PressureProfile, scale: ClusterScale): nu
   return mpc2ToArcmin2At(scale, yCylMpc2(profile, scale, 5, 5));
 }
 
+/** Y5R500 in Mpc²: D_A² times {@link y5r500Arcmin2} (= Y_sph(5R500) of the profile truncated at 5R500). */
+export function y5r500Mpc2(profile: PressureProfile, scale: ClusterScale): number {
+  return yCylMpc2(profile, scale, 5, 5);
+}
+
 /** Y500 in arcmin²: Y_sph(R500) of the profile truncated at 5R500, divided by D_A². */
 export function y500Arcmin2(profile: PressureProfile, scale: ClusterScale): number {
   return mpc2ToArcmin2At(scale, ySphMpc2(profile, scale, 1, 5));

@@ -6,13 +6,13 @@
  * Template spectrum in DFT units (normalisation of @umbra/maps' FFT), unit central y:
  *   T_k = θ² g(ℓ_k θ) B_eff(ℓ_k) / ΔΩ,
  * with g the profile's Fourier transform at unit scale (../mmf/profile.ts), θ = θ500 in rad,
- * B_eff(ℓ) = exp(−ℓ²σ²/2) the y map's Gaussian beam and ΔΩ the pixel solid angle (sr): the DFT of
+ * B_eff(ℓ) = exp(−ℓ(ℓ+1)σ²/2) the y map's Gaussian beam (@umbra/maps gaussianBeam) and ΔΩ the pixel solid angle (sr): the DFT of
  * the pixel-sampled continuous image whose transform is τ̃ B (common practice, no source).
  * Aperture response Y_ap = (1/N) Σ_k w_k Re(F_k conj T_k) and variance
  * Var = (1/N) Σ_k w_k |F_k|² C(ℓ_k)/ΔΩ (aperture/variance.ts), with F the kernel's DFT.
  */
 import { RAD_PER_ARCMIN } from "@umbra/core";
-import { ellOfModes, getRfft2Plan, type FlatGeometry } from "@umbra/maps";
+import { ellOfModes, gaussianBeam, getRfft2Plan, type FlatGeometry } from "@umbra/maps";
 import { profileAt, type ProfileTable } from "../mmf/profile.js";
 import type { ApertureSpec } from "./photometry.js";
 import { apertureKernel } from "./variance.js";
@@ -55,7 +55,7 @@ export function apertureModel(spec: ApertureSpec, thetaArcmin: number, table: Pr
   const ell = ellOfModes(plan.layout, local);
   const omega = geom.dxRad * geom.dyRad;
   const thetaRad = thetaArcmin * RAD_PER_ARCMIN;
-  const sb = (effFwhmArcmin * RAD_PER_ARCMIN) / Math.sqrt(8 * Math.LN2);
+  const beam = gaussianBeam(effFwhmArcmin).transferOnEll(ell);
   const template = new Float64Array(plan.layout.modeCount);
   let resp = 0;
   let vari = 0;
@@ -64,7 +64,7 @@ export function apertureModel(spec: ApertureSpec, thetaArcmin: number, table: Pr
     const w = plan.layout.hermitianWeight[k] as number;
     const re = fk[2 * k] as number;
     const im = fk[2 * k + 1] as number;
-    const t = (thetaRad * thetaRad * profileAt(table, l * thetaRad) * Math.exp(-0.5 * l * l * sb * sb)) / omega;
+    const t = (thetaRad * thetaRad * profileAt(table, l * thetaRad) * (beam[k] as number)) / omega;
     template[k] = t;
     resp += w * re * t;
     vari += w * (re * re + im * im) * power(l);

@@ -10,11 +10,12 @@
  * (MNRAS 410, 2481) for the constrained ILC, Delabrouille et al. 2009 (A&A 493, 835) for scale
  * domains and the ILC bias. See docs/ilc.md.
  */
-import { UmbraError, RAD_PER_ARCMIN, fwhmToSigma } from "@umbra/core";
+import { UmbraError } from "@umbra/core";
 import {
   apodisationWindow,
   crossPowerBinned,
   ellOfModes,
+  gaussianBeam,
   getRfft2Plan,
   windowPowerFraction,
   type BinnedPower,
@@ -114,10 +115,9 @@ export interface YMapProduct {
   apodisation: { widthPix: number; modeFactor: number; powerFraction: number };
 }
 
-/** Flat-sky Gaussian beam transfer B(ℓ) = exp(−ℓ²σ²/2), σ = FWHM/sqrt(8 ln 2) (common practice). */
+/** The effective beam's transfer: @umbra/maps' Gaussian beam (B_ℓ = exp(−ℓ(ℓ+1)σ²/2), the maps package's multipole convention). */
 function gaussianTransfer(fwhmArcmin: number, ell: Float64Array): Float64Array {
-  const s = fwhmToSigma(fwhmArcmin) * RAD_PER_ARCMIN;
-  return ell.map((l) => Math.exp(-0.5 * l * l * s * s));
+  return gaussianBeam(fwhmArcmin).transferOnEll(ell);
 }
 
 function defaultBoundaries(ellNyquist: number): number[] {

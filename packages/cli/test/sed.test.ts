@@ -67,6 +67,10 @@ describe("umbra sed", () => {
     expect(j.values[0]!.response).toAllClose(1, { rtol: 1e-13 });
     expect(j.values[0]!.effective_frequency_ghz!).toAllClose(40 / Math.log(170 / 130), { rtol: 1e-13 });
   });
+  it("converts to Jy/beam with the beam solid angle: MJy/sr × 1e6 × Ω (definition of the units)", async () => {
+    expect(await run(["sed", "--component", "radio", "--freq", "150", "--ref-ghz", "150", "--unit", "Jy/beam", "--beam-sr", "2e-7", "--json"])).toBe(0);
+    expect((JSON.parse(out) as SedJson).values[0]!.response).toAllClose(0.2, { rtol: 1e-14 });
+  });
   it("prints a readable table without --json", async () => {
     expect(await run(["sed", "--component", "cmb", "--freq", "100,143"])).toBe(0);
     expect(out).toMatch(/^# cmb response in K_CMB per K_CMB\nfrequency_GHz\tresponse\n100\.000\t1\.0000000\n143\.000\t1\.0000000\n$/);
@@ -77,6 +81,7 @@ describe("umbra sed", () => {
       [["sed", "--component", "tsz", "--freq", "30", "--unit", "mK"], /unknown unit 'mK'/],
       [["sed", "--component", "tsz", "--freq", "90,-150"], /--freq -150 GHz must be positive/],
       [["sed", "--component", "tsz", "--freq", "90", "--te-kev", "-3"], /electron temperature -3 keV/],
+      [["sed", "--component", "dust", "--freq", "353", "--unit", "Jy/beam"], /--unit Jy\/beam needs --beam-sr/],
       [["sed", "--component", "tsz", "--bandpass", join(dir, "missing.txt")], /missing\.txt: cannot read bandpass file/],
     ];
     const badRows = join(dir, "bad.txt");

@@ -104,6 +104,9 @@ async function sedAction(o: SedOptions): Promise<void> {
   }
   const unit: MapUnit = o.unit;
   const beamSolidAngleSr = o.beamSr === undefined ? undefined : number("beam-sr", o.beamSr);
+  if (unit === "Jy/beam" && beamSolidAngleSr === undefined) {
+    throw new UmbraError("BAD_OPTION", "--unit Jy/beam needs --beam-sr (the beam solid angle in sr)", { field: "beam-sr" });
+  }
   const bands: { band: BandSpec; file?: string }[] = [];
   if (o.freq !== undefined) for (const f of parseFrequencies(o.freq)) bands.push({ band: { frequencyGHz: f } });
   for (const file of o.bandpass ?? []) bands.push({ band: { bandpass: await readBandpassTable(file) }, file });

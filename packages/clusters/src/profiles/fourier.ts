@@ -92,11 +92,13 @@ function splineSecond(y: Float64Array, h: number): Float64Array {
   return m;
 }
 
+/** Tables kept (least recently built first out): a mass-dependent profile makes one table per mass. */
+const CACHE_LIMIT = 64;
 const cache = new Map<string, FourierShape>();
 
 /**
- * Tabulate F̃(q) for `profile` (cached per profile key, truncation and grid). Building costs a few
- * hundred ms once; reading is a spline lookup.
+ * Tabulate F̃(q) for `profile` (cached per profile key, truncation and grid; the last 64 tables
+ * are kept). Building costs ~0.5 s once; reading is a spline lookup.
  */
 export function fourierShape(profile: PressureProfile, opts: FourierShapeOptions = {}): FourierShape {
   const T = requireFinite("truncation", opts.truncation ?? DEFAULT_TRUNCATION, (v) => v > 0 && Number.isFinite(v), "not a positive finite radius");
@@ -117,6 +119,7 @@ export function fourierShape(profile: PressureProfile, opts: FourierShapeOptions
   const fB = Math.abs(values[nodes - 1]!);
   const tailIndex = fA > 0 && fB > 0 ? Math.log(fA / fB) / Math.log(10) : 3;
   const shape: FourierShape = { profile, truncation: T, centralLineIntegral: l0, peak: values[0]!, qMax, du, values, second, tailIndex };
+  if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   cache.set(key, shape);
   return shape;
 }

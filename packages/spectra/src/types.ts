@@ -8,7 +8,7 @@
  * frequency and multiplies specific intensity; between samples τ is linear). Frequencies strictly
  * increasing, in GHz; weights ≥ 0, any overall scale. `refFrequencyGHz` is the frequency at which
  * MJy/sr and Jy/beam values are quoted (ν⁻¹ reference spectrum); default: the transmission-weighted
- * mean frequency ∫τν dν / ∫τ dν.
+ * mean frequency ∫τν dν / ∫τ dν. Treat a bandpass as immutable: its quadrature is cached per object.
  */
 export interface Bandpass {
   readonly frequencyGHz: Float64Array;

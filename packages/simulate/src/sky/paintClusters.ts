@@ -15,8 +15,9 @@ import type { TrueCluster } from "./clusterTruth.js";
 const TABLE_NODES = 4096;
 
 /**
- * Add every cluster into every band's spectrum: spectra[b] += amplitude[c][b] · template_c, with
- * `amplitudes[c][b]` the band response (K_CMB per unit y0, kSZ included) of cluster c.
+ * Add every cluster into every target spectrum: spectra[b] += amplitudes[c][b] · y0_c · template_c,
+ * with `amplitudes[c][b]` the response of target b per unit y0 of cluster c (a band's K_CMB
+ * response with kSZ included, or 1 for a plain y spectrum).
  * `ells` are the modes' multipoles; `pixelSr` the pixel solid angle.
  */
 export function paintClusters(

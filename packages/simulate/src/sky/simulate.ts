@@ -1,13 +1,13 @@
 /**
  * One simulated multi-band field: primary CMB, clusters (tSZ, relativistic when asked, kSZ),
  * dust/CIB with partial decorrelation between bands, radio sources, each band beam-convolved in
- * Fourier space, converted to its unit, plus correlated atmospheric 1/ℓ noise and white noise
+ * Fourier space (Gaussian beam of @umbra/maps), converted to its unit, plus correlated atmospheric 1/ℓ noise and white noise
  * with optional inhomogeneous depth. Deterministic: every random stream is a named fork of
  * createRng(seed), so the same scenario and seed give the same numbers on every machine.
  */
 import { createRng, UmbraError } from "@umbra/core";
 import { cosmologyPreset } from "@umbra/clusters";
-import { ellOfModes, evaluateCl, getRfft2Plan, type FlatGeometry, type Wcs } from "@umbra/maps";
+import { ellOfModes, evaluateCl, gaussianBeam, getRfft2Plan, multiplyModes, type FlatGeometry, type Wcs } from "@umbra/maps";
 import { componentResponse, unitConversionFactor, type BandSpec } from "@umbra/spectra";
 import type { MapUnit } from "@umbra/core";
 import { lcdmTtClK2 } from "../cmb/lcdmSpectrum.js";
@@ -76,12 +76,6 @@ export function scenarioBandSpec(b: ScenarioBand): BandSpec {
   return { frequencyGHz: b.frequencyGHz! };
 }
 
-/** Gaussian beam solid angle 2πσ² = π FWHM²/(4 ln 2) in sr (common practice). */
-function beamSolidAngleSr(fwhmArcmin: number): number {
-  const f = fwhmArcmin * RAD_PER_ARCMIN;
-  return (Math.PI * f * f) / (4 * Math.LN2);
-}
-
 function cmbSpectrum(scenario: Scenario, opts: SimulateOptions): ((ell: number) => number) | null {
   const c = scenario.sky.cmb;
   if (!c) return null;
@@ -144,17 +138,34 @@ export function simulateField(scenario: Scenario, seed: number, opts: SimulateOp
   const cs = scenario.sky.clusters;
   if (cs && draw.clusters.length > 0) {
     const kszResp = bandSpecs.map((b) => componentResponse({ kind: "ksz" }, b, "K_CMB"));
-    const nonRel = bandSpecs.map((b) => componentResponse({ kind: "tsz" }, b, "K_CMB"));
-    const amps = draw.clusters.map((c) => {
-      const a = new Float64Array(nb);
-      for (let i = 0; i < nb; i++) {
-        const tsz = cs.relativistic ? componentResponse({ kind: "tsz", kTeKeV: c.kTeKeV }, bandSpecs[i]!, "K_CMB") : nonRel[i]!;
-        // kSZ: amplitude τ0 v/c relative to y0 → (τ0/y0)(v/c)
-        a[i] = tsz + ((c.tau0 / c.y0) * (c.vLosKmS / C_KM_S)) * kszResp[i]!;
-      }
-      return a;
-    });
-    paintClusters(spectra, draw.clusters, amps, layout, ells, pixSr);
+    // kSZ amplitude relative to y0: (τ0/y0)(v/c)
+    const kszRel = draw.clusters.map((c) => (c.tau0 / c.y0) * (c.vLosKmS / C_KM_S));
+    if (cs.relativistic) {
+      // the tSZ response depends on each cluster's kTe: paint straight into every band
+      const amps = draw.clusters.map((c, j) => {
+        const a = new Float64Array(nb);
+        for (let i = 0; i < nb; i++) a[i] = componentResponse({ kind: "tsz", kTeKeV: c.kTeKeV }, bandSpecs[i]!, "K_CMB") + kszRel[j]! * kszResp[i]!;
+        return a;
+      });
+      paintClusters(spectra, draw.clusters, amps, layout, ells, pixSr);
+    } else {
+      // one y spectrum (and one τv/c spectrum when there are velocities), then each band's response
+      const withKsz = kszRel.some((v) => v !== 0);
+      const comps = withKsz ? [new Float64Array(layout.spectrumLength), new Float64Array(layout.spectrumLength)] : [new Float64Array(layout.spectrumLength)];
+      const amps = kszRel.map((k) => (withKsz ? Float64Array.of(1, k) : Float64Array.of(1)));
+      paintClusters(comps, draw.clusters, amps, layout, ells, pixSr);
+      bandSpecs.forEach((b, i) => {
+        const r = componentResponse({ kind: "tsz" }, b, "K_CMB");
+        const s = spectra[i]!;
+        const y = comps[0]!;
+        for (let k = 0; k < s.length; k++) s[k] = s[k]! + r * y[k]!;
+        if (withKsz) {
+          const t = comps[1]!;
+          const rk = kszResp[i]!;
+          for (let k = 0; k < s.length; k++) s[k] = s[k]! + rk * t[k]!;
+        }
+      });
+    }
   }
 
   const radio = drawRadioSources(scenario, wcs, draw.clusters, rng.fork("radio"));
@@ -179,14 +190,11 @@ export function simulateField(scenario: Scenario, seed: number, opts: SimulateOp
   const atmCommon = scenario.bands.some((b) => b.atmosphere) ? whiteModes(plan, atmRng.fork("common"), scratch) : null;
   const atmOwn = new Float64Array(layout.spectrumLength);
   const rho = scenario.atmosphereCorrelation;
+  const beamScratch = new Float64Array(layout.modeCount);
   const bands: SimulatedBand[] = scenario.bands.map((b, i) => {
     const s = spectra[i]!;
-    const sigma = (b.beamFwhmArcmin * RAD_PER_ARCMIN) / Math.sqrt(8 * Math.LN2);
-    for (let m = 0; m < layout.modeCount; m++) {
-      const t = Math.exp(-0.5 * ells[m]! * ells[m]! * sigma * sigma); // flat-sky Gaussian beam transfer
-      s[2 * m] = s[2 * m]! * t;
-      s[2 * m + 1] = s[2 * m + 1]! * t;
-    }
+    const beam = gaussianBeam(b.beamFwhmArcmin);
+    multiplyModes(s, beam.transferOnEll(ells, beamScratch), s); // B_ℓ = exp(−ℓ(ℓ+1)σ²/2), the maps package's convention
     const nWhite = (b.noiseUKArcmin * 1e-6 * RAD_PER_ARCMIN) ** 2; // white-noise C_ℓ in K²·sr
     if (b.atmosphere && atmCommon && nWhite > 0) {
       const { ellKnee, slope } = b.atmosphere;
@@ -205,7 +213,7 @@ export function simulateField(scenario: Scenario, seed: number, opts: SimulateOp
     if (sigmaPix > 0) {
       for (let p = 0; p < npix; p++) map[p] = map[p]! + (sigmaPix / (depth ? Math.sqrt(depth[p]!) : 1)) * wrng.normal();
     }
-    const k = unitConversionFactor("K_CMB", b.unit, bandSpecs[i]!, b.unit === "Jy/beam" ? { beamSolidAngleSr: beamSolidAngleSr(b.beamFwhmArcmin) } : undefined);
+    const k = unitConversionFactor("K_CMB", b.unit, bandSpecs[i]!, b.unit === "Jy/beam" ? { beamSolidAngleSr: beam.solidAngleSr } : undefined);
     for (let p = 0; p < npix; p++) map[p] = map[p]! * k;
     let ivar: Float64Array | null = null;
     if (sigmaPix > 0) {

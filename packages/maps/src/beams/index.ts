@@ -1,1 +1,10 @@
-export {};
+export type { Beam, BeamKind } from "./types.js";
+export { gaussianBeam, equivalentFwhmArcmin } from "./gaussian.js";
+export { profileBeam } from "./profile.js";
+export type { ProfileBeamOptions } from "./profile.js";
+export { transferBeam } from "./transfer.js";
+export { readNumericTable, parseNumericTable } from "./table.js";
+export { readTransferFits } from "./fitsTable.js";
+export { loadBeamFile, beamForBand } from "./load.js";
+export type { BeamFileKind } from "./load.js";
+export { besselJ0 } from "./bessel.js";

@@ -1,1 +1,15 @@
-export {};
+export { parseCard, parseValueField, isValidKeyword } from "./card.js";
+export type { FitsCard, FitsValue, FitsValueKind } from "./card.js";
+export { makeHeader, parseHeaderAt, BLOCK_BYTES, CARD_BYTES } from "./header.js";
+export type { FitsHeader, ParsedHeader } from "./header.js";
+export { scanHdus } from "./layout.js";
+export type { HduLayout, HduType } from "./layout.js";
+export { decodePixels } from "./pixels.js";
+export type { PixelScaling } from "./pixels.js";
+export { selectHdu, mapShape } from "./select.js";
+export type { HduSelector } from "./select.js";
+export { memorySource, fileSource } from "./source.js";
+export type { ByteSource } from "./source.js";
+export { decodeCompressedImage } from "./compressed.js";
+export { readFitsImage, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
+export type { ReadFitsOptions, FitsImage } from "./read.js";

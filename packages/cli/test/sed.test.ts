@@ -82,11 +82,11 @@ describe("umbra sed", () => {
       [["sed", "--component", "tsz", "--freq", "90,-150"], /--freq -150 GHz must be positive/],
       [["sed", "--component", "tsz", "--freq", "90", "--te-kev", "-3"], /electron temperature -3 keV/],
       [["sed", "--component", "dust", "--freq", "353", "--unit", "Jy/beam"], /--unit Jy\/beam needs --beam-sr/],
-      [["sed", "--component", "tsz", "--bandpass", join(dir, "missing.txt")], /missing\.txt: cannot read bandpass file/],
+      [["sed", "--component", "tsz", "--bandpass", join(dir, "missing.txt")], /missing\.txt: table file not found or unreadable/],
     ];
     const badRows = join(dir, "bad.txt");
     writeFileSync(badRows, "100 1\n110 x\n");
-    cases.push([["sed", "--component", "tsz", "--bandpass", badRows], /bad\.txt, row 2: expected two numbers/]);
+    cases.push([["sed", "--component", "tsz", "--bandpass", badRows], /bad\.txt, row 2: bandpass table: column 2 'x' is not a finite number/]);
     for (const [argv, re] of cases) {
       err = "";
       expect(await run(argv)).toBe(2);

@@ -3,9 +3,9 @@
  * frequencies or tabulated bandpasses) in one map unit. tSZ per unit y (relativistic with
  * --te-kev), kSZ per unit τ·v/c, CMB per K_CMB, dust/CIB/radio per MJy/sr at --ref-ghz.
  */
-import { readFile } from "node:fs/promises";
 import type { Command } from "commander";
-import { UmbraError, isMapUnit } from "@umbra/core";
+import { UmbraError, isMapUnit, isUmbraError } from "@umbra/core";
+import { readNumericTable } from "@umbra/maps";
 import type { MapUnit } from "@umbra/core";
 import { COMPONENT_KINDS, componentEffectiveFrequency, componentResponse, bandReferenceFrequency } from "@umbra/spectra";
 import type { BandSpec, Bandpass, ComponentSpec } from "@umbra/spectra";
@@ -40,31 +40,20 @@ function parseFrequencies(text: string): number[] {
 }
 
 /**
- * Read a two-column bandpass table (frequency in GHz, transmission weight), whitespace- or
- * comma-separated, '#' comments; a bad row is a BAD_VALUE error naming the file and row.
+ * Read a two-column bandpass table (frequency in GHz, transmission weight) with @umbra/maps'
+ * numeric-table reader. A malformed table is the user's input, so BAD_DATA becomes BAD_VALUE
+ * (exit 2), keeping the file and row.
  */
 export async function readBandpassTable(path: string): Promise<Bandpass> {
-  let text: string;
   try {
-    text = await readFile(path, "utf8");
-  } catch {
-    throw new UmbraError("NOT_FOUND", "cannot read bandpass file", { file: path });
-  }
-  const f: number[] = [];
-  const w: number[] = [];
-  text.split(/\r?\n/).forEach((line, i) => {
-    const body = line.replace(/#.*/, "").trim();
-    if (body === "") return;
-    const cols = body.split(/[\s,]+/);
-    const a = Number(cols[0]);
-    const b = Number(cols[1]);
-    if (cols.length < 2 || !Number.isFinite(a) || !Number.isFinite(b)) {
-      throw new UmbraError("BAD_VALUE", `expected two numbers (frequency GHz, weight), got '${body}'`, { file: path, row: i + 1 });
+    const [frequencyGHz, weight] = await readNumericTable(path, 2);
+    return { frequencyGHz: frequencyGHz as Float64Array, weight: weight as Float64Array, name: path };
+  } catch (e) {
+    if (isUmbraError(e, "BAD_DATA")) {
+      throw new UmbraError("BAD_VALUE", e.message.replace(/^.*?: /, "bandpass table: "), e.place);
     }
-    f.push(a);
-    w.push(b);
-  });
-  return { frequencyGHz: Float64Array.from(f), weight: Float64Array.from(w), name: path };
+    throw e;
+  }
 }
 
 function componentFrom(o: SedOptions): ComponentSpec {

@@ -112,6 +112,16 @@ describe("reproject", () => {
     expect(sameGrid(out, { ...target })).toBe(false);
   });
 
+  it("treats LATPOLE = 90 and the pole latitude it resolves to as the same grid", () => {
+    // CAR south of the equator: LONPOLE 180 and LATPOLE 90 select δ_p = 90° + δ0 (C&G 2002 §2.4)
+    const written = wcsFromHeader(header({ CTYPE1: "RA---CAR", CTYPE2: "DEC--CAR", CRVAL1: 120, CRVAL2: -5, CRPIX1: 5, CRPIX2: 5, CDELT1: -0.01, CDELT2: 0.01 }));
+    expect(written.latpole).toAllClose(85, { rtol: 1e-12 });
+    const literal: Wcs = { ...written, latpole: 90 };
+    expect(sameGrid({ nx: 9, ny: 9, wcs: written }, { nx: 9, ny: 9, wcs: literal })).toBe(true);
+    expect(sameGrid({ nx: 9, ny: 9, wcs: written }, { nx: 9, ny: 9, wcs: { ...written, crval: [120, -5.001] } })).toBe(false);
+    expect(sameGrid({ nx: 9, ny: 9, wcs: written }, { nx: 9, ny: 9, wcs: { ...written, crval: [480, -5] } })).toBe(true);
+  });
+
   it("puts NaN where the source does not cover the target", () => {
     const wide = { nx: 300, ny: 300, wcs: tanWcs(150.5, 0.5, 0) };
     const out = reproject(source, wide);

@@ -178,3 +178,17 @@ describe("bad headers give BAD_WCS naming the file and keyword", () => {
     expect(Number.isNaN(w.lonDeg)).toBe(true);
   });
 });
+
+describe("makeWcs", () => {
+  it("centres the grid on the requested position and matches the equivalent CROTA2 header", async () => {
+    const { makeWcs } = await import("../src/wcs/index.js");
+    const w = makeWcs({ projection: "TAN", centerDeg: [150, 2], nx: 101, ny: 80, pixelArcmin: 0.5, rotationDeg: 20 });
+    const c = pixelToWorld(w, 50, 39.5);
+    expect([c.lonDeg, c.latDeg]).toAllClose([150, 2], { atol: 1e-12, rtol: 0 });
+    const h = wcsFromHeader(headerOf({ CTYPE1: "RA---TAN", CTYPE2: "DEC--TAN", CRPIX1: 51, CRPIX2: 40.5, CRVAL1: 150, CRVAL2: 2, CDELT1: -0.5 / 60, CDELT2: 0.5 / 60, CROTA2: 20 }));
+    expect(w.cd).toAllClose(h.cd, { rtol: 1e-15 });
+    const g = makeWcs({ projection: "CAR", centerDeg: [120, 10], nx: 10, ny: 10, pixelArcmin: 1, frame: "GALACTIC" });
+    expect([g.ctype[0], g.radesys, g.lonpole]).toEqual(["GLON-CAR", "GALACTIC", 0]);
+    expect(() => makeWcs({ projection: "TAN", centerDeg: [0, 0], nx: 0, ny: 10, pixelArcmin: 1 })).toThrow(/must be positive/);
+  });
+});

@@ -65,7 +65,9 @@ export function reproject(source: SkyMap, target: TargetGrid, options: Reproject
 
 /**
  * True when two maps share one pixel grid: same size, projection, axis order and frame, and
- * CRPIX, CRVAL, CD, LONPOLE, LATPOLE, PV equal within `tol` (relative, default 1e-9).
+ * CRPIX, CRVAL, CD, PV and the resolved native pole (α_p, δ_p, φ_p; so a LATPOLE written as 90
+ * and one written as the pole latitude it selects compare equal) within `tol` (relative, default
+ * 1e-9; CD relative to its largest element).
  */
 export function sameGrid(a: { nx: number; ny: number; wcs: Wcs | null }, b: { nx: number; ny: number; wcs: Wcs | null }, tol = 1e-9): boolean {
   if (a.nx !== b.nx || a.ny !== b.ny) return false;
@@ -74,18 +76,16 @@ export function sameGrid(a: { nx: number; ny: number; wcs: Wcs | null }, b: { nx
   const q = b.wcs;
   if (p.projection !== q.projection || p.lonAxis !== q.lonAxis || p.radesys !== q.radesys || p.equinox !== q.equinox) return false;
   const close = (x: number, y: number): boolean => Math.abs(x - y) <= tol * Math.max(1, Math.abs(x), Math.abs(y));
+  const angleClose = (x: number, y: number): boolean => Math.abs(Math.atan2(Math.sin(x - y), Math.cos(x - y))) <= tol;
   const scale = Math.max(...p.cd.map(Math.abs));
   const cdClose = p.cd.every((v, i) => Math.abs(v - (q.cd[i] as number)) <= tol * scale);
   const pvKeys = new Set([...Object.keys(p.pv), ...Object.keys(q.pv)]);
   const pvClose = [...pvKeys].every((k) => close(p.pv[k] ?? 0, q.pv[k] ?? 0));
-  return (
-    cdClose &&
-    pvClose &&
-    close(p.crpix[0], q.crpix[0]) &&
-    close(p.crpix[1], q.crpix[1]) &&
-    close(p.crval[0], q.crval[0]) &&
-    close(p.crval[1], q.crval[1]) &&
-    close(p.lonpole, q.lonpole) &&
-    close(p.latpole, q.latpole)
-  );
+  if (!(cdClose && pvClose && close(p.crpix[0], q.crpix[0]) && close(p.crpix[1], q.crpix[1]))) return false;
+  if (!(angleClose(p.crval[0] * D2R, q.crval[0] * D2R) && close(p.crval[1], q.crval[1]))) return false;
+  const rp = planWcs(p).rot;
+  const rq = planWcs(q).rot;
+  return angleClose(rp.alphaP, rq.alphaP) && angleClose(rp.deltaP, rq.deltaP) && angleClose(rp.phiP, rq.phiP);
 }
+
+const D2R = Math.PI / 180;

@@ -11,4 +11,6 @@ export {
 } from "./transform.js";
 export type { WcsPlan, WorldDeg, PixelPos } from "./transform.js";
 export { wcsToHeaderCards, shiftWcs } from "./cards.js";
+export { makeWcs } from "./make.js";
+export type { MakeWcsOptions } from "./make.js";
 export type { WcsCard } from "./cards.js";

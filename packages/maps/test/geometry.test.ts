@@ -74,6 +74,17 @@ describe("cutout", () => {
     expect(() => cutout(m, w.lonDeg, w.latDeg, 6, 6, { requireComplete: true })).toThrow(/extends past the map edge/);
   });
 
+  it("cuts across RA = 0/360 with positions given either side of the wrap", () => {
+    const wrap = rampMap(60, 60, { CTYPE1: "RA---TAN", CTYPE2: "DEC--TAN", CRVAL1: 0.05, CRVAL2: -30, CRPIX1: 30.5, CRPIX2: 30.5, CDELT1: -0.01, CDELT2: 0.01 });
+    const a = cutout(wrap, 359.98, -30, 5, 5);
+    const b = cutout(wrap, -0.02, -30, 5, 5);
+    expect([a.x0, a.y0]).toEqual([b.x0, b.y0]);
+    expect(a.x0).toBe(34); // ΔRA = −0.07° → +0.07·cos 30° / 0.01 = 6.06 pixels east of CRPIX1 − 1 = 29.5 → nearest 36, minus 2
+    expect(a.complete).toBe(true);
+    const east = pixelToWorld(wrap.wcs!, 59, 29.5);
+    expect(east.lonDeg).toBeGreaterThan(359); // the map's right-hand side lies at RA just below 360
+  });
+
   it("throws BAD_VALUE when the position is off the map or the size is not a positive integer", () => {
     for (const f of [() => cutout(m, 200, 0, 5, 5), () => cutout(m, 30, 0, 0, 5), () => cutout(m, 30, 0, 2.5, 5)]) {
       try {

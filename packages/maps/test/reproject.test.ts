@@ -105,6 +105,17 @@ describe("reproject", () => {
     expect(maxError(lin)).toBeGreaterThan(2 * maxError(cub));
   });
 
+  it("resamples between projections: CAR source onto a SIN target within 5e-4 of the peak (bicubic)", () => {
+    const carWcs = wcsFromHeader(header({ CTYPE1: "RA---CAR", CTYPE2: "DEC--CAR", CRVAL1: 150, CRVAL2: 0, CRPIX1: 80.5, CRPIX2: -160.5, CDELT1: -0.5 / 60, CDELT2: 0.5 / 60 }));
+    const car = mapOf(160, 160, carWcs, blob(2.5)); // CRVAL2 = 0 with CRPIX2 offset: rows span Dec ≈ 1.3°…2.7°
+    const sinGrid = { nx: 100, ny: 100, wcs: tanWcs(50, 0.5, 15, { CTYPE1: "RA---SIN", CTYPE2: "DEC--SIN" }) };
+    const out = reproject(car, sinGrid);
+    const exact = mapOf(100, 100, sinGrid.wcs, blob(2.5));
+    let worst = 0;
+    for (let k = 0; k < out.data.length; k++) worst = Math.max(worst, Math.abs((out.data[k] as number) - (exact.data[k] as number)));
+    expect(worst).toBeLessThan(5e-4);
+  });
+
   it("gives back the source on its own grid", () => {
     const out = reproject(source, { nx: source.nx, ny: source.ny, wcs: source.wcs as Wcs });
     expect(out.data).toAllClose(source.data, { atol: 1e-9, rtol: 0 });

@@ -6,9 +6,12 @@
  * PFFFT only takes lengths 2^a·3^b·5^c that are multiples of 32 (real, the x pass) or 16 (complex,
  * the y pass); any other size aborts inside wasm, so sizes are checked first and rejected with a
  * BAD_OPTION error. Rows go through PFFFT's ordered real transform, whose first complex slot packs
- * (F_0, F_{nx/2}); columns through its complex transform. The transforms work on small buffers in
- * the wasm heap; the inverse uses one JS scratch of spectrumLength floats. Relative accuracy is
- * ~1e-7 (float32); use the float64 plan for reference work.
+ * (F_0, F_{nx/2}); columns through its complex transform. Both passes run in place on two
+ * buffers in the wasm heap (the map's rows, nx·ny floats, and the transposed half spectrum,
+ * spectrumLength floats: together about one float64 band); JS only copies in and out (memcpy),
+ * transposes between them in tiles and applies 1/(nx·ny). The wasm memory grows to hold them and
+ * never shrinks, even after `dispose()`. Relative accuracy ~1e-7 (float32); use the float64 plan
+ * for reference work.
  */
 import { UmbraError } from "@umbra/core";
 import type { PffftModule } from "@echogarden/pffft-wasm/simd";
@@ -46,6 +49,9 @@ export function float32SizeProblem(nx: number, ny: number): string | null {
   return null;
 }
 
+/** Complex values per side of a transpose tile. */
+const TILE = 32;
+
 class PffftPlan implements Rfft2PlanF32 {
   readonly nx: number;
   readonly ny: number;
@@ -53,12 +59,13 @@ class PffftPlan implements Rfft2PlanF32 {
   private readonly mod: PffftModule;
   private rowSetup: number;
   private colSetup: number;
-  private readonly rowIn: number; // byte pointers into the wasm heap
-  private readonly rowOut: number;
+  private readonly rows: number; // byte pointer: nx·ny floats, the map's rows (transformed in place)
+  private readonly cols: number; // byte pointer: spectrumLength floats, the transposed half spectrum
   private readonly rowWork: number;
-  private readonly colBuf: number;
   private readonly colWork: number;
-  private scratch: Float32Array | null = null;
+  private heap: Float32Array | null = null;
+  private rowsView: Float32Array = new Float32Array(0);
+  private colsView: Float32Array = new Float32Array(0);
   private disposed = false;
 
   constructor(mod: PffftModule, nx: number, ny: number) {
@@ -69,85 +76,104 @@ class PffftPlan implements Rfft2PlanF32 {
     this.rowSetup = mod._pffft_new_setup(nx, PFFFT_REAL);
     this.colSetup = mod._pffft_new_setup(ny, PFFFT_COMPLEX);
     if (this.rowSetup === 0 || this.colSetup === 0) throw new UmbraError("INTERNAL", `PFFFT refused the sizes ${nx}×${ny}`, { field: "nx" });
-    this.rowIn = mod._pffft_aligned_malloc(4 * nx);
-    this.rowOut = mod._pffft_aligned_malloc(4 * nx);
+    this.rows = mod._pffft_aligned_malloc(4 * nx * ny);
+    this.cols = mod._pffft_aligned_malloc(4 * this.layout.spectrumLength);
     this.rowWork = mod._pffft_aligned_malloc(4 * nx);
-    this.colBuf = mod._pffft_aligned_malloc(8 * ny);
     this.colWork = mod._pffft_aligned_malloc(8 * ny);
+    if (this.rows === 0 || this.cols === 0) throw new UmbraError("BAD_DATA", `not enough wasm memory for a ${nx}×${ny} float32 FFT plan`, { field: "nx" });
   }
 
-  private check(): void {
+  /** The heap views, re-made only when the wasm memory has grown (which replaces its buffer). */
+  private views(): Float32Array {
     if (this.disposed) throw new UmbraError("BAD_OPTION", "this float32 FFT plan was disposed", { field: "plan" });
+    const heap = this.mod.HEAPF32;
+    if (heap !== this.heap) {
+      this.heap = heap;
+      this.rowsView = heap.subarray(this.rows >> 2, (this.rows >> 2) + this.nx * this.ny);
+      this.colsView = heap.subarray(this.cols >> 2, (this.cols >> 2) + this.layout.spectrumLength);
+    }
+    return heap;
   }
 
   forward(map: Float32Array, spectrum: Float32Array): void {
-    this.check();
     const { nx, ny, mod } = this;
     checkLength("map", map, nx * ny);
     checkLength("spectrum", spectrum, this.layout.spectrumLength);
-    const heap = mod.HEAPF32;
-    const rin = this.rowIn >> 2;
-    const rout = this.rowOut >> 2;
+    this.views();
+    const a = this.rowsView;
+    const b = this.colsView;
+    a.set(map);
+    for (let y = 0; y < ny; y++) {
+      const p = this.rows + 4 * y * nx;
+      mod._pffft_transform_ordered(this.rowSetup, p, p, this.rowWork, PFFFT_FORWARD);
+    }
+    // rows (F_0, F_{nx/2}), F_1, … F_{nx/2−1} → columns k = 0 … nx/2, each ny complex
     const half = nx >> 1;
     const col = 2 * ny;
     for (let y = 0; y < ny; y++) {
-      const r = y * nx;
-      for (let x = 0; x < nx; x++) heap[rin + x] = map[r + x] as number;
-      mod._pffft_transform_ordered(this.rowSetup, this.rowIn, this.rowOut, this.rowWork, PFFFT_FORWARD);
-      let o = 2 * y;
-      spectrum[o] = heap[rout] as number;
-      spectrum[o + 1] = 0;
-      const nyq = half * col + 2 * y;
-      spectrum[nyq] = heap[rout + 1] as number;
-      spectrum[nyq + 1] = 0;
-      o += col;
-      for (let k = 1; k < half; k++, o += col) {
-        spectrum[o] = heap[rout + 2 * k] as number;
-        spectrum[o + 1] = heap[rout + 2 * k + 1] as number;
+      b[2 * y] = a[y * nx] as number;
+      b[2 * y + 1] = 0;
+      b[half * col + 2 * y] = a[y * nx + 1] as number;
+      b[half * col + 2 * y + 1] = 0;
+    }
+    for (let y0 = 0; y0 < ny; y0 += TILE) {
+      const y1 = Math.min(ny, y0 + TILE);
+      for (let k0 = 1; k0 < half; k0 += TILE) {
+        const k1 = Math.min(half, k0 + TILE);
+        for (let k = k0; k < k1; k++) {
+          let o = k * col + 2 * y0;
+          for (let y = y0, i = y0 * nx + 2 * k; y < y1; y++, i += nx, o += 2) {
+            b[o] = a[i] as number;
+            b[o + 1] = a[i + 1] as number;
+          }
+        }
       }
     }
-    const cb = this.colBuf >> 2;
     for (let k = 0; k <= half; k++) {
-      const base = k * col;
-      for (let i = 0; i < col; i++) heap[cb + i] = spectrum[base + i] as number;
-      mod._pffft_transform_ordered(this.colSetup, this.colBuf, this.colBuf, this.colWork, PFFFT_FORWARD);
-      for (let i = 0; i < col; i++) spectrum[base + i] = heap[cb + i] as number;
+      const p = this.cols + 4 * k * col;
+      mod._pffft_transform_ordered(this.colSetup, p, p, this.colWork, PFFFT_FORWARD);
     }
+    spectrum.set(b);
   }
 
   inverse(spectrum: Float32Array, map: Float32Array): void {
-    this.check();
     const { nx, ny, mod } = this;
     checkLength("spectrum", spectrum, this.layout.spectrumLength);
     checkLength("map", map, nx * ny);
-    if (this.scratch === null) this.scratch = new Float32Array(this.layout.spectrumLength);
-    const s = this.scratch;
-    const heap = mod.HEAPF32;
+    this.views();
+    const a = this.rowsView;
+    const b = this.colsView;
+    b.set(spectrum);
     const half = nx >> 1;
     const col = 2 * ny;
-    const cb = this.colBuf >> 2;
     for (let k = 0; k <= half; k++) {
-      const base = k * col;
-      for (let i = 0; i < col; i++) heap[cb + i] = spectrum[base + i] as number;
-      mod._pffft_transform_ordered(this.colSetup, this.colBuf, this.colBuf, this.colWork, PFFFT_BACKWARD);
-      for (let i = 0; i < col; i++) s[base + i] = heap[cb + i] as number;
+      const p = this.cols + 4 * k * col;
+      mod._pffft_transform_ordered(this.colSetup, p, p, this.colWork, PFFFT_BACKWARD);
     }
-    const rin = this.rowIn >> 2;
-    const rout = this.rowOut >> 2;
-    const scale = 1 / (nx * ny);
+    // imaginary parts of kx = 0 and nx/2 are dropped, as numpy's irfft does
     for (let y = 0; y < ny; y++) {
-      let o = 2 * y;
-      heap[rin] = s[o] as number; // imaginary parts of kx = 0 and nx/2 dropped, as numpy's irfft
-      heap[rin + 1] = s[half * col + o] as number;
-      o += col;
-      for (let k = 1; k < half; k++, o += col) {
-        heap[rin + 2 * k] = s[o] as number;
-        heap[rin + 2 * k + 1] = s[o + 1] as number;
-      }
-      mod._pffft_transform_ordered(this.rowSetup, this.rowIn, this.rowOut, this.rowWork, PFFFT_BACKWARD);
-      const r = y * nx;
-      for (let x = 0; x < nx; x++) map[r + x] = (heap[rout + x] as number) * scale;
+      a[y * nx] = b[2 * y] as number;
+      a[y * nx + 1] = b[half * col + 2 * y] as number;
     }
+    for (let y0 = 0; y0 < ny; y0 += TILE) {
+      const y1 = Math.min(ny, y0 + TILE);
+      for (let k0 = 1; k0 < half; k0 += TILE) {
+        const k1 = Math.min(half, k0 + TILE);
+        for (let k = k0; k < k1; k++) {
+          let o = k * col + 2 * y0;
+          for (let y = y0, i = y0 * nx + 2 * k; y < y1; y++, i += nx, o += 2) {
+            a[i] = b[o] as number;
+            a[i + 1] = b[o + 1] as number;
+          }
+        }
+      }
+    }
+    for (let y = 0; y < ny; y++) {
+      const p = this.rows + 4 * y * nx;
+      mod._pffft_transform_ordered(this.rowSetup, p, p, this.rowWork, PFFFT_BACKWARD);
+    }
+    const scale = 1 / (nx * ny);
+    for (let i = 0; i < nx * ny; i++) map[i] = (a[i] as number) * scale;
   }
 
   dispose(): void {
@@ -156,9 +182,12 @@ class PffftPlan implements Rfft2PlanF32 {
     const m = this.mod;
     m._pffft_destroy_setup(this.rowSetup);
     m._pffft_destroy_setup(this.colSetup);
-    for (const p of [this.rowIn, this.rowOut, this.rowWork, this.colBuf, this.colWork]) m._pffft_aligned_free(p);
+    for (const p of [this.rows, this.cols, this.rowWork, this.colWork]) m._pffft_aligned_free(p);
     this.rowSetup = 0;
     this.colSetup = 0;
+    this.heap = null;
+    this.rowsView = new Float32Array(0);
+    this.colsView = new Float32Array(0);
   }
 }
 

@@ -147,6 +147,7 @@ describe("bad headers give BAD_WCS naming the file and keyword", () => {
     ["non-celestial axis", { ...ok, CTYPE1: "FREQ" }, "CTYPE1"],
     ["missing CTYPE2", { ...ok, CTYPE2: undefined as unknown as string }, "CTYPE2"],
     ["unknown projection", { ...ok, CTYPE1: "RA---XYZ", CTYPE2: "DEC--XYZ" }, "CTYPE1"],
+    ["SIP distortion", { ...ok, CTYPE1: "RA---TAN-SIP", CTYPE2: "DEC--TAN-SIP" }, "CTYPE1"],
     ["mixed frames", { ...ok, CTYPE2: "GLAT-TAN" }, "CTYPE2"],
     ["two longitudes", { ...ok, CTYPE2: "RA---TAN" }, "CTYPE2"],
     ["singular CD", { ...ok, CD1_1: 1, CD1_2: 2, CD2_1: 2, CD2_2: 4 }, "CD1_1"],

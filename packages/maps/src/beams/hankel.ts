@@ -6,7 +6,7 @@
  */
 import { besselJ0 } from "./bessel.js";
 import { GL8 } from "./quadrature.js";
-import { splineAt, findInterval } from "./spline.js";
+import { splineAt } from "./spline.js";
 import type { CubicSpline } from "./spline.js";
 
 /**
@@ -62,4 +62,3 @@ export function splineMoment(s: CubicSpline, weight: (x: number) => number): num
   return total;
 }
 
-export { findInterval };

@@ -121,6 +121,9 @@ interface AxisType {
 }
 
 function parseCtype(ctype: string, keyword: string, fail: (k: string, m: string) => never): AxisType {
+  if (/-(SIP|TPV|TNX|ZPX|TPD)$/i.test(ctype)) {
+    return fail(keyword, `'${ctype}': distortion conventions (SIP, TPV, TNX, ZPX, TPD) are not supported`);
+  }
   const m = /^([A-Z]{1,4})-*-([A-Z0-9]{3})$/.exec(ctype.toUpperCase());
   if (m === null || ctype.length !== 8) {
     return fail(keyword, `'${ctype}' is not a celestial axis (expected e.g. RA---TAN, DEC--TAN, GLON-CAR)`);

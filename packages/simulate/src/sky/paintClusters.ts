@@ -44,6 +44,20 @@ export function paintClusters(
   const eyIm = new Float64Array(ny);
   const nb = spectra.length;
   const amp = new Float64Array(nb);
+  // per-mode table position and wrapped ky index, shared by every cluster
+  const inv = 1 / dEll;
+  const node = new Int32Array(modeCount);
+  const frac = new Float64Array(modeCount);
+  const kyRow = new Int32Array(modeCount);
+  for (let m = 0; m < modeCount; m++) {
+    const t = ells[m]! * inv;
+    node[m] = t | 0;
+    frac[m] = t - (t | 0);
+    const ky = kyIndex[m]!;
+    kyRow[m] = ky < 0 ? ky + ny : ky;
+  }
+  const s0 = spectra[0]!;
+  const s1 = nb > 1 ? spectra[1]! : s0;
   for (let c = 0; c < clusters.length; c++) {
     const cl = clusters[c]!;
     profileFourierAtEll(shape, cl.theta500Arcmin * RAD_PER_ARCMIN, grid, table);
@@ -60,21 +74,25 @@ export function paintClusters(
       eyRe[k] = Math.cos(ph);
       eyIm[k] = Math.sin(ph);
     }
-    const inv = 1 / dEll;
+    const a0 = amp[0]!;
+    const a1 = nb > 1 ? amp[1]! : 0;
     for (let m = 0; m < modeCount; m++) {
-      const t = ells[m]! * inv;
-      const j = t | 0;
-      const f = table[j]! + (t - j) * (table[j + 1]! - table[j]!);
+      const j = node[m]!;
+      const f = table[j]! + frac[m]! * (table[j + 1]! - table[j]!);
       const kx = kxIndex[m]!;
-      let ky = kyIndex[m]!;
-      if (ky < 0) ky += ny;
+      const ky = kyRow[m]!;
       const ar = exRe[kx]!;
       const ai = exIm[kx]!;
       const br = eyRe[ky]!;
       const bi = eyIm[ky]!;
       const re = f * (ar * br - ai * bi);
       const im = f * (ar * bi + ai * br);
-      for (let b = 0; b < nb; b++) {
+      s0[2 * m] = s0[2 * m]! + a0 * re;
+      s0[2 * m + 1] = s0[2 * m + 1]! + a0 * im;
+      if (nb === 1) continue;
+      s1[2 * m] = s1[2 * m]! + a1 * re;
+      s1[2 * m + 1] = s1[2 * m + 1]! + a1 * im;
+      for (let b = 2; b < nb; b++) {
         const s = spectra[b]!;
         s[2 * m] = s[2 * m]! + amp[b]! * re;
         s[2 * m + 1] = s[2 * m + 1]! + amp[b]! * im;

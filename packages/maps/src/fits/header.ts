@@ -85,9 +85,10 @@ export function parseHeaderAt(source: ByteSource, offset: number, file: string, 
       if (prev !== undefined && prev.kind === "string" && typeof prev.value === "string" && prev.value.endsWith("&")) {
         const more = parseValueField(text.slice(10));
         if (more !== null && more.kind === "string") {
+          const joined = prev.value.slice(0, -1) + String(more.value);
           cards[cards.length - 1] = {
             ...prev,
-            value: (prev.value.slice(0, -1) + String(more.value)).replace(/ +$/, ""),
+            value: joined.replace(/ +$/, ""),
             comment: more.comment !== "" ? (prev.comment === "" ? more.comment : `${prev.comment} ${more.comment}`) : prev.comment,
           };
           continue;

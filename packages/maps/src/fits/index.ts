@@ -13,3 +13,7 @@ export type { ByteSource } from "./source.js";
 export { decodeCompressedImage } from "./compressed.js";
 export { readFitsImage, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
 export type { ReadFitsOptions, FitsImage } from "./read.js";
+export { formatCard, formatValueCard, formatCommentary, formatReal } from "./format.js";
+export type { CardInput, ValueCardInput, CommentaryCardInput } from "./format.js";
+export { encodeFits, writeFits, writeSkyMapFits, provenanceCards } from "./write.js";
+export type { FitsImageHdu, WriteFitsOptions } from "./write.js";

@@ -159,6 +159,14 @@ describe("clusters", () => {
     expect(Math.abs((best % 256) - c.xPix)).toBeLessThanOrEqual(1);
     expect(Math.abs(Math.floor(best / 256) - c.yPix)).toBeLessThanOrEqual(1);
   });
+  it("keeps a listed cluster outside the grid in the truth (inField false) without painting it", () => {
+    const bands = [{ name: "a", frequencyGHz: 150, beamFwhmArcmin: 1, unit: "K_CMB", noiseUKArcmin: 0 }];
+    const out = [{ id: "FAR", raDeg: 50, decDeg: -20, m500Msun: 6e14, z: 0.3 }];
+    const f = simulateField(scenario({}, { clusters: { list: out } }, bands), 1);
+    expect(f.clusters[0]!.inField).toBe(false);
+    expect(f.clusters[0]!.nearEdge).toBe(true);
+    expect(f.bands[0]!.map.every((x) => x === 0)).toBe(true);
+  });
   it("adds kSZ with the sign of ΔT/T0 = −τ v/c (a receding cluster is a cold spot at the tSZ null)", () => {
     const list = [{ id: "K", raDeg: 40, decDeg: -20, m500Msun: 6e14, z: 0.3, vLosKmS: 1000 }];
     const bands = [{ name: "n", frequencyGHz: 217.5, beamFwhmArcmin: 1, unit: "K_CMB", noiseUKArcmin: 0 }];

@@ -136,24 +136,26 @@ export function simulateField(scenario: Scenario, seed: number, opts: SimulateOp
   const cosmo = cosmologyPreset(scenario.cosmology);
   const draw = drawClusters(scenario, cosmo, wcs, rng.fork("clusters"));
   const cs = scenario.sky.clusters;
-  if (cs && draw.clusters.length > 0) {
+  // a listed cluster outside the grid is kept in the truth (inField false) but not painted: the periodic transform would wrap it in
+  const painted = draw.clusters.filter((c) => c.inField);
+  if (cs && painted.length > 0) {
     const kszResp = bandSpecs.map((b) => componentResponse({ kind: "ksz" }, b, "K_CMB"));
     // kSZ amplitude relative to y0: (τ0/y0)(v/c)
-    const kszRel = draw.clusters.map((c) => (c.tau0 / c.y0) * (c.vLosKmS / C_KM_S));
+    const kszRel = painted.map((c) => (c.tau0 / c.y0) * (c.vLosKmS / C_KM_S));
     if (cs.relativistic) {
       // the tSZ response depends on each cluster's kTe: paint straight into every band
-      const amps = draw.clusters.map((c, j) => {
+      const amps = painted.map((c, j) => {
         const a = new Float64Array(nb);
         for (let i = 0; i < nb; i++) a[i] = componentResponse({ kind: "tsz", kTeKeV: c.kTeKeV }, bandSpecs[i]!, "K_CMB") + kszRel[j]! * kszResp[i]!;
         return a;
       });
-      paintClusters(spectra, draw.clusters, amps, layout, ells, pixSr);
+      paintClusters(spectra, painted, amps, layout, ells, pixSr);
     } else {
       // one y spectrum (and one τv/c spectrum when there are velocities), then each band's response
       const withKsz = kszRel.some((v) => v !== 0);
       const comps = withKsz ? [new Float64Array(layout.spectrumLength), new Float64Array(layout.spectrumLength)] : [new Float64Array(layout.spectrumLength)];
       const amps = kszRel.map((k) => (withKsz ? Float64Array.of(1, k) : Float64Array.of(1)));
-      paintClusters(comps, draw.clusters, amps, layout, ells, pixSr);
+      paintClusters(comps, painted, amps, layout, ells, pixSr);
       bandSpecs.forEach((b, i) => {
         const r = componentResponse({ kind: "tsz" }, b, "K_CMB");
         const s = spectra[i]!;

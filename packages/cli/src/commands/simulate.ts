@@ -6,6 +6,7 @@
 import type { Command } from "commander";
 import { UmbraError } from "@umbra/core";
 import { loadScenario, simulateField, writeSimulatedField } from "@umbra/simulate";
+import { VERSION } from "../version.js";
 
 interface SimulateCliOptions {
   scenario: string;
@@ -27,7 +28,7 @@ export async function simulateAction(o: SimulateCliOptions): Promise<string[]> {
   const seed = parseSeed(o.seed);
   const loaded = await loadScenario(o.scenario);
   const field = simulateField(loaded.scenario, seed, loaded.cmbTable ? { cmbTable: loaded.cmbTable } : {});
-  const written = await writeSimulatedField(field, o.out);
+  const written = await writeSimulatedField(field, o.out, { toolVersion: VERSION });
   const inField = field.clusters.filter((c) => c.inField).length;
   const summary = {
     scenario: loaded.scenario.name,

@@ -29,20 +29,28 @@ async function sha256(path: string): Promise<string> {
   return createHash("sha256").update(await readFile(path)).digest("hex");
 }
 
+/** Options of {@link writeSimulatedField}. */
+export interface WriteFieldOptions {
+  /** Version of the calling tool for the provenance blocks (the CLI passes its own). */
+  toolVersion?: string;
+}
+
 /** Write `field` into `outDir` (created if needed); see the module comment for the files. */
-export async function writeSimulatedField(field: SimulatedField, outDir: string): Promise<WrittenField> {
+export async function writeSimulatedField(field: SimulatedField, outDir: string, options: WriteFieldOptions = {}): Promise<WrittenField> {
   const dir = resolve(outDir);
   await mkdir(dir, { recursive: true });
+  const version = options.toolVersion ?? "library";
+  const fitsProvenance = { tool: SIMULATOR_NAME, version, settings: { scenario: field.scenario.name, seed: field.seed }, inputs: [] };
   const files: string[] = [];
   const manifest: BandManifest = { path: join(dir, "bands.json"), name: field.scenario.name, bands: [] };
   for (const b of field.bands) {
     const mapPath = join(dir, `${b.name}.fits`);
-    await writeBandFits(mapPath, field, b, "map");
+    await writeBandFits(mapPath, field, b, "map", fitsProvenance);
     files.push(mapPath);
     let ivarPath: string | null = null;
     if (b.ivar) {
       ivarPath = join(dir, `${b.name}_ivar.fits`);
-      await writeBandFits(ivarPath, field, b, "ivar");
+      await writeBandFits(ivarPath, field, b, "ivar", fitsProvenance);
       files.push(ivarPath);
     }
     let bandpassPath: string | null = null;
@@ -79,6 +87,7 @@ export async function writeSimulatedField(field: SimulatedField, outDir: string)
   for (const f of files) hashes[f.slice(dir.length + 1)] = await sha256(f);
   const provenance = {
     tool: SIMULATOR_NAME,
+    version,
     seed: field.seed,
     scenario: field.scenario,
     expectedClusterCount: field.expectedClusterCount,

@@ -3,10 +3,11 @@
  * Add a line here when you add a command.
  */
 import type { Command } from "commander";
+import { register as registerMeasure } from "./measure.js";
 import { register as registerSed } from "./sed.js";
 import { register as registerCluster } from "./cluster.js";
 
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerSed, registerCluster];
+export const COMMANDS: readonly RegisterCommand[] = [registerMeasure, registerSed, registerCluster];

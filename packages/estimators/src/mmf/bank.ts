@@ -164,35 +164,7 @@ export function buildFilterBank(inp: FilterBankInputs): FilterBank {
     const Q = inverseNoise(p, nb, U, ell);
     for (let i = 0; i < nb; i++) for (let j = 0; j < nb; j++) qNodes[(n * nb + i) * nb + j] = Q.get(i, j);
   }
-  // pre-whitened spectra E = Q(ℓ) (M / B), beams exact per mode, Q interpolated between nodes
-  const nm = layout.modeCount;
-  const whitened = deconvolveBeams(inp.spectra, inp.beams, inp.ells);
-  const re = new Float64Array(nb);
-  const im = new Float64Array(nb);
-  const nb2 = nb * nb;
-  for (let m = 0; m < nm; m++) {
-    for (let i = 0; i < nb; i++) {
-      const s = whitened[i] as Float64Array;
-      re[i] = s[2 * m] as number;
-      im[i] = s[2 * m + 1] as number;
-    }
-    const o0 = (grid.index[m] as number) * nb2;
-    const o1 = o0 + nb2;
-    const t = grid.frac[m] as number;
-    for (let i = 0; i < nb; i++) {
-      let ar = 0;
-      let ai = 0;
-      for (let j = 0; j < nb; j++) {
-        const q = i * nb + j;
-        const k = (qNodes[o0 + q] as number) * (1 - t) + (qNodes[o1 + q] as number) * t;
-        ar += k * (re[j] as number);
-        ai += k * (im[j] as number);
-      }
-      const w = whitened[i] as Float64Array;
-      w[2 * m] = ar;
-      w[2 * m + 1] = ai;
-    }
-  }
+  const whitened = whitenWith(qNodes, grid, nb, layout.modeCount, deconvolveBeams(inp.spectra, inp.beams, inp.ells));
   return {
     nBands: nb,
     layout,
@@ -209,4 +181,44 @@ export function buildFilterBank(inp: FilterBankInputs): FilterBank {
     beams: inp.beams,
     deproject,
   };
+}
+
+/** E = Q(ℓ)·S per mode, in place on the deconvolved spectra `s` (Q interpolated between nodes). */
+function whitenWith(qNodes: Float64Array, grid: ModeGrid, nb: number, nm: number, s: Float64Array[]): Float64Array[] {
+  const re = new Float64Array(nb);
+  const im = new Float64Array(nb);
+  const nb2 = nb * nb;
+  for (let m = 0; m < nm; m++) {
+    for (let i = 0; i < nb; i++) {
+      const x = s[i] as Float64Array;
+      re[i] = x[2 * m] as number;
+      im[i] = x[2 * m + 1] as number;
+    }
+    const o0 = (grid.index[m] as number) * nb2;
+    const o1 = o0 + nb2;
+    const t = grid.frac[m] as number;
+    for (let i = 0; i < nb; i++) {
+      let ar = 0;
+      let ai = 0;
+      for (let j = 0; j < nb; j++) {
+        const q = i * nb + j;
+        const k = (qNodes[o0 + q] as number) * (1 - t) + (qNodes[o1 + q] as number) * t;
+        ar += k * (re[j] as number);
+        ai += k * (im[j] as number);
+      }
+      const w = s[i] as Float64Array;
+      w[2 * m] = ar;
+      w[2 * m + 1] = ai;
+    }
+  }
+  return s;
+}
+
+/**
+ * The same bank applied to other data: pre-whitened spectra of `spectra` (same layout, K_CMB),
+ * e.g. the data minus a model of the clusters. The filter weights are unchanged.
+ */
+export function rewhitenBank(bank: FilterBank, spectra: readonly Float64Array[]): FilterBank {
+  const w = whitenWith(bank.qNodes, bank.grid, bank.nBands, bank.layout.modeCount, deconvolveBeams(spectra, bank.beams, bank.ells));
+  return { ...bank, whitened: w };
 }

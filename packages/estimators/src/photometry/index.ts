@@ -8,3 +8,5 @@ export { positionFlags, FATAL_FLAGS } from "./flags.js";
 export type { ClusterFlag } from "./flags.js";
 export { randomPositionScatter, randomAllowedMask, robustSigma } from "./randoms.js";
 export type { RandomScatter } from "./randoms.js";
+export { clusterPhysics, YM_RELATIONS } from "./physics.js";
+export type { YmRelationName } from "./physics.js";

@@ -27,8 +27,11 @@ export interface ClusterPhysics {
   temperatureKeVFromMass?(m500Msun: number, z: number): number;
   /** Angular diameter distance in Mpc. */
   angularDiameterDistanceMpc?(z: number): number;
-  /** M500 (M☉) and its 1σ error from Y5R500 in Mpc² (with error) at z. */
-  massFromY?(yMpc2: number, yErrMpc2: number, z: number): { m500Msun: number; m500ErrMsun: number };
+  /**
+   * M500 (M☉) and its 1σ error at z from the Y5R500 (arcmin², with error) measured in the aperture
+   * of each trial θ500 (`yAt` re-fits the cluster at that size).
+   */
+  massFromY?(yAt: (theta500Arcmin: number) => { yArcmin2: number; yErrArcmin2: number }, z: number): { m500Msun: number; m500ErrMsun: number };
 }
 
 /** Band SEDs in K_CMB per unit amplitude, one value per band. */
@@ -56,6 +59,8 @@ export interface MeasureOptions {
   /** Cleaning iterations after the first pass (default 4) and stop tolerance in σ (default 0.02). */
   readonly maxIterations?: number;
   readonly tolerance?: number;
+  /** Jacobi iterations of the joint fit of all clusters (neighbour deblending; default 3, 0 = none). */
+  readonly jointIterations?: number;
   /** Random positions for the empirical error (default 300; 0 = none). */
   readonly randomCount?: number;
   /** Seed of the random positions (default 1). */
@@ -95,7 +100,10 @@ export interface ClusterMeasurement {
   readonly yArcmin2: number;
   readonly yErrArcmin2: number;
   readonly snr: number;
-  /** Empirical σ(y0) from random positions at this size (NaN when not computed). */
+  /**
+   * Empirical σ(y0) from random positions: (robust scatter of the filter at random positions ÷ its
+   * analytic σ, interpolated in size) × this cluster's analytic σ. NaN when not computed.
+   */
   readonly y0ErrRandom: number;
   /** kTe used for the relativistic response (0 = non-relativistic). */
   readonly teKeVUsed: number;

@@ -14,7 +14,10 @@ export interface FftBenchRow {
   backend: "f64" | "f32";
   nx: number;
   ny: number;
+  /** Median wall-clock seconds per round trip. */
   roundTripSeconds: number;
+  /** Median process CPU seconds per round trip (robust on a busy machine). */
+  roundTripCpuSeconds: number;
   runs: number;
 }
 
@@ -60,13 +63,17 @@ export async function benchFft(options: { quick?: boolean } = {}): Promise<FftBe
       plan.forward(map, spec);
       plan.inverse(spec, back);
       const times: number[] = [];
+      const cpu: number[] = [];
       for (let r = 0; r < runs; r++) {
+        const c0 = process.cpuUsage();
         const t0 = performance.now();
         plan.forward(map, spec);
         plan.inverse(spec, back);
         times.push((performance.now() - t0) / 1000);
+        const c = process.cpuUsage(c0);
+        cpu.push((c.user + c.system) / 1e6);
       }
-      rows.push({ backend: "f64", nx, ny, roundTripSeconds: median(times), runs });
+      rows.push({ backend: "f64", nx, ny, roundTripSeconds: median(times), roundTripCpuSeconds: median(cpu), runs });
     }
     try {
       const plan = await createRfft2PlanFloat32(nx, ny);
@@ -77,14 +84,18 @@ export async function benchFft(options: { quick?: boolean } = {}): Promise<FftBe
       plan.forward(map, spec);
       plan.inverse(spec, back);
       const times: number[] = [];
+      const cpu: number[] = [];
       for (let r = 0; r < runs; r++) {
+        const c0 = process.cpuUsage();
         const t0 = performance.now();
         plan.forward(map, spec);
         plan.inverse(spec, back);
         times.push((performance.now() - t0) / 1000);
+        const c = process.cpuUsage(c0);
+        cpu.push((c.user + c.system) / 1e6);
       }
       plan.dispose();
-      rows.push({ backend: "f32", nx, ny, roundTripSeconds: median(times), runs });
+      rows.push({ backend: "f32", nx, ny, roundTripSeconds: median(times), roundTripCpuSeconds: median(cpu), runs });
     } catch {
       // the float32 path does not take this shape (pffft size rules): no row
     }

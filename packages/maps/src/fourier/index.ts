@@ -1,5 +1,5 @@
 export type { Rfft2Plan, Rfft2PlanF32, SpectrumLayout } from "./types.js";
-export { getRfft2Plan } from "./rfft2-f64.js";
+export { getRfft2Plan, clearRfft2PlanCache } from "./rfft2-f64.js";
 export { ellOfModes, kxKyOfModes, multiplyModes, multiplyModesComplex } from "./modes.js";
 export { crossPowerBinned, powerSpectrum2d } from "./power.js";
 export type { BinnedPower } from "./power.js";

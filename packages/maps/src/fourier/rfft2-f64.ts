@@ -35,10 +35,15 @@ export function checkLength(name: string, buf: ArrayLike<number>, len: number): 
   }
 }
 
-/** Lanes per batch for length n: keeps a lane buffer near LANE_DOUBLES doubles (tuned on the benchmark machine). */
+/**
+ * Target size of a lane buffer in doubles (512 KB). Measured on the 2-core benchmark machine
+ * (docs/fft.md): 2^16 was fastest among 2^11 … 2^18 at 1024², 2048², 4096² and 900×600.
+ */
 const LANE_DOUBLES = 1 << 16;
-export function laneCount(n: number, cap: number): number {
-  return Math.max(1, Math.min(cap, 32, Math.floor(LANE_DOUBLES / (2 * n))));
+
+/** Lanes per batch for length n: as many as fit in `laneDoubles`, at least 1, at most min(cap, 32). */
+export function laneCount(n: number, cap: number, laneDoubles = LANE_DOUBLES): number {
+  return Math.max(1, Math.min(cap, 32, Math.floor(laneDoubles / (2 * n))));
 }
 
 /** Float64 plan for one (nx, ny); see the module comment. Holds buffers: one plan per thread. */
@@ -54,15 +59,16 @@ export class Rfft2PlanF64 implements Rfft2Plan {
   private readonly rowBuf: Float64Array;
   private scratch: Float64Array | null = null;
 
-  constructor(nx: number, ny: number) {
+  /** `laneDoubles` (internal tuning knob): target size of a lane buffer in doubles. */
+  constructor(nx: number, ny: number, laneDoubles = LANE_DOUBLES) {
     checkDimension("nx", nx);
     checkDimension("ny", ny);
     this.nx = nx;
     this.ny = ny;
     this.nh = halfWidth(nx);
     this.layout = makeRowMajorLayout(nx, ny);
-    this.rowLanes = laneCount(nx, Math.ceil(ny / 2));
-    this.colLanes = laneCount(ny, this.nh);
+    this.rowLanes = laneCount(nx, Math.ceil(ny / 2), laneDoubles);
+    this.colLanes = laneCount(ny, this.nh, laneDoubles);
     this.rowFft = makeLaneFft(nx, this.rowLanes);
     this.colFft = makeLaneFft(ny, this.colLanes);
     this.rowBuf = new Float64Array(2 * nx * this.rowLanes);
@@ -197,7 +203,8 @@ const planCache = new Map<string, Rfft2PlanF64>();
  * The cached float64 plan for an nx × ny map (nx pixels per row, ny rows), any nx, ny ≥ 1:
  * 5-smooth lengths use our mixed-radix kernel at their own size, others Bluestein; never padded.
  * The cache is per module instance, i.e. per thread (each worker gets its own plans), and keeps the
- * 8 most recently used shapes. A plan holds scratch buffers, so it must not be shared across threads.
+ * 8 most recently used shapes (a 4096² plan holds a 128 MB scratch after its first inverse; see
+ * {@link clearRfft2PlanCache}). A plan holds scratch buffers, so it must not be shared across threads.
  */
 export function getRfft2Plan(nx: number, ny: number): Rfft2Plan {
   checkDimension("nx", nx);
@@ -216,4 +223,9 @@ export function getRfft2Plan(nx: number, ny: number): Rfft2Plan {
     if (oldest !== undefined) planCache.delete(oldest);
   }
   return plan;
+}
+
+/** Drop every cached float64 plan (frees their scratch buffers, e.g. after a run on large maps). */
+export function clearRfft2PlanCache(): void {
+  planCache.clear();
 }

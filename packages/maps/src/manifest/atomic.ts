@@ -1,20 +1,14 @@
 /**
- * Atomic file replacement: write a temporary file beside the target, then rename it over the
- * target (rename within one directory is atomic on POSIX file systems), so a reader never sees a
- * half-written file and a crash leaves the old file intact. Common practice, no source.
+ * Atomic text/bytes output for manifests and CSV tables: delegates to the one atomic writer in
+ * `io/atomic.ts` (temporary file in the same folder, fsync, rename; common practice, no source).
+ * Kept under this name because other packages import `writeTextAtomic`.
  */
-import { randomBytes } from "node:crypto";
-import { rename, unlink, writeFile } from "node:fs/promises";
-import { basename, dirname, join } from "node:path";
+import { writeFileAtomic } from "../io/atomic.js";
 
-/** Write `data` to `path` atomically (temp file in the same directory + rename). */
+/**
+ * Write `data` (UTF-8 text or bytes) to `path` atomically.
+ * @throws UmbraError NOT_FOUND when the folder does not exist, BAD_OPTION on other write failures.
+ */
 export async function writeTextAtomic(path: string, data: string | Uint8Array): Promise<void> {
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${randomBytes(4).toString("hex")}.tmp`);
-  try {
-    await writeFile(tmp, data);
-    await rename(tmp, path);
-  } catch (e) {
-    await unlink(tmp).catch(() => undefined);
-    throw e;
-  }
+  await writeFileAtomic(path, data);
 }

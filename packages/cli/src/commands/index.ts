@@ -3,11 +3,14 @@
  * Add a line here when you add a command.
  */
 import type { Command } from "commander";
+import { register as registerRegress } from "./regress.js";
+import { register as registerSearch } from "./search.js";
 import { register as registerMeasure } from "./measure.js";
 import { register as registerSed } from "./sed.js";
 import { register as registerCluster } from "./cluster.js";
+import { register as registerSimulate } from "./simulate.js";
 
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerMeasure, registerSed, registerCluster];
+export const COMMANDS: readonly RegisterCommand[] = [registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate];

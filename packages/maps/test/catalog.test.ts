@@ -80,6 +80,7 @@ describe("writeCsvAtomic / writeClusterCatalog", () => {
     await writeCsvAtomic(out, ["id"], [{ id: "only" }]);
     expect(await readFile(out, "utf8")).toBe("id\nonly\n");
     expect((await readdir(dir)).filter((f) => f.endsWith(".tmp"))).toEqual([]);
+    await expect(writeCsvAtomic(join(dir, "no-such-folder", "x.csv"), ["id"], [])).rejects.toMatchObject({ code: "NOT_FOUND" });
     await writeFile(join(dir, "x.csv"), "id,ra_deg,dec_deg\n");
     expect((await readClusterCatalog(join(dir, "x.csv"))).rows).toEqual([]);
   });

@@ -56,6 +56,8 @@ export function paintClusters(
     const ky = kyIndex[m]!;
     kyRow[m] = ky < 0 ? ky + ny : ky;
   }
+  let rowMajor = modeCount === ny * nkx;
+  for (let m = 0; rowMajor && m < modeCount; m++) if (kxIndex[m] !== m % nkx || kyRow[m] !== kyRow[m - (m % nkx)]) rowMajor = false;
   const s0 = spectra[0]!;
   const s1 = nb > 1 ? spectra[1]! : s0;
   for (let c = 0; c < clusters.length; c++) {
@@ -76,6 +78,30 @@ export function paintClusters(
     }
     const a0 = amp[0]!;
     const a1 = nb > 1 ? amp[1]! : 0;
+    if (rowMajor && nb <= 2) {
+      // row-major half plane (m = iy·nkx + ix): the y phase is constant along a row
+      for (let iy = 0; iy < ny; iy++) {
+        const br = eyRe[kyRow[iy * nkx]!]!;
+        const bi = eyIm[kyRow[iy * nkx]!]!;
+        const base = iy * nkx;
+        for (let ix = 0; ix < nkx; ix++) {
+          const m = base + ix;
+          const j = node[m]!;
+          const f = table[j]! + frac[m]! * (table[j + 1]! - table[j]!);
+          const ar = exRe[ix]!;
+          const ai = exIm[ix]!;
+          const re = f * (ar * br - ai * bi);
+          const im = f * (ar * bi + ai * br);
+          s0[2 * m] = s0[2 * m]! + a0 * re;
+          s0[2 * m + 1] = s0[2 * m + 1]! + a0 * im;
+          if (nb === 2) {
+            s1[2 * m] = s1[2 * m]! + a1 * re;
+            s1[2 * m + 1] = s1[2 * m + 1]! + a1 * im;
+          }
+        }
+      }
+      continue;
+    }
     for (let m = 0; m < modeCount; m++) {
       const j = node[m]!;
       const f = table[j]! + frac[m]! * (table[j + 1]! - table[j]!);
@@ -87,12 +113,7 @@ export function paintClusters(
       const bi = eyIm[ky]!;
       const re = f * (ar * br - ai * bi);
       const im = f * (ar * bi + ai * br);
-      s0[2 * m] = s0[2 * m]! + a0 * re;
-      s0[2 * m + 1] = s0[2 * m + 1]! + a0 * im;
-      if (nb === 1) continue;
-      s1[2 * m] = s1[2 * m]! + a1 * re;
-      s1[2 * m + 1] = s1[2 * m + 1]! + a1 * im;
-      for (let b = 2; b < nb; b++) {
+      for (let b = 0; b < nb; b++) {
         const s = spectra[b]!;
         s[2 * m] = s[2 * m]! + amp[b]! * re;
         s[2 * m + 1] = s[2 * m + 1]! + amp[b]! * im;

@@ -6,3 +6,4 @@ export { randomApertureScatter } from "./random.js";
 export type { RandomApertureOptions, RandomApertureScatter } from "./random.js";
 export { measureCatalogByIlc } from "./measure.js";
 export type { IlcMeasureOptions, IlcMeasureResult } from "./measure.js";
+export { besselJ1, discTransform, apertureVarianceRadial } from "./radial.js";

@@ -81,6 +81,14 @@ export interface YMapOptions {
   apodisationWidthPix?: number;
   /** Electron temperature for a relativistic tSZ target, keV (default: non-relativistic). */
   kTeKeV?: number;
+  /**
+   * Maps (K_CMB, one per band, same order and grid) from which the band covariance is estimated
+   * instead of the band maps themselves, e.g. the bands with a first-pass fit of every catalogued
+   * cluster subtracted: cluster signal in the covariance correlates by chance with the
+   * contaminants and the ILC then cancels part of it (the ILC bias of Delabrouille et al. 2009,
+   * much larger than (m − k)/N_p for bright clusters on a steep foreground spectrum).
+   */
+  covarianceMaps?: readonly Float64Array[];
   /** Width of the noise-power bins in ℓ (default: twice the fundamental multipole 2π/L of the longer side L). */
   powerBinWidthEll?: number;
 }
@@ -232,12 +240,17 @@ export function buildYMap(bands: readonly IlcBand[], geom: FlatGeometry, options
   const synth: Float64Array[] = [];
   const covSpec: Float64Array[] = [];
   const buf = new Float64Array(n);
-  for (const b of bands) {
+  if (options.covarianceMaps !== undefined && options.covarianceMaps.length !== bands.length) {
+    throw new UmbraError("INTERNAL", `${options.covarianceMaps.length} covariance maps for ${bands.length} bands`);
+  }
+  for (const [i, b] of bands.entries()) {
     const bad = fillCentred(b, buf, geom.nx, geom.ny);
     for (let p = 0; p < n; p++) if (bad[p]) invalid[p] = 1;
     const s = new Float64Array(layout.spectrumLength);
     plan.forward(buf, s);
     synth.push(s);
+    const covMap = options.covarianceMaps?.[i];
+    if (covMap !== undefined) fillCentred({ ...b, map: covMap }, buf, geom.nx, geom.ny);
     for (let p = 0; p < n; p++) buf[p] = (buf[p] as number) * (window[p] as number);
     const c = new Float64Array(layout.spectrumLength);
     plan.forward(buf, c);

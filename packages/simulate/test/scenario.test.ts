@@ -65,6 +65,11 @@ describe("parseScenario", () => {
     expect(p).toContain("sky.radio.maxFluxJy: must exceed minFluxJy");
     expect(p).toContain("sky.clusters.list[1].id: duplicate id 'X'");
   });
+  it("rejects an unknown cosmology and a mass function on a preset without sigma8", () => {
+    expect(problemsOf({ ...minimal, cosmology: "nonsense" })[0]).toContain("unknown preset 'nonsense'");
+    const p = problemsOf({ ...minimal, cosmology: "concordance", sky: { clusters: { massFunction: { mMinMsun: 1e14, mMaxMsun: 1e15, zMin: 0.1, zMax: 1 } } } });
+    expect(p[0]).toContain("has no sigma8");
+  });
   it("accepts every scenario shipped in fixtures/scenarios", () => {
     const dir = fileURLToPath(new URL("../../../fixtures/scenarios/", import.meta.url));
     const files = readdirSync(dir).filter((f) => f.endsWith(".json"));

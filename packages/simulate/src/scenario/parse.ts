@@ -3,6 +3,7 @@
  * error naming the file and each offending field.
  */
 import { UmbraError } from "@umbra/core";
+import { COSMOLOGY_PRESETS, COSMOLOGY_PRESET_NAMES } from "@umbra/clusters";
 import { scenarioSchema, type Scenario } from "./schema.js";
 
 function pathOf(path: readonly PropertyKey[]): string {
@@ -36,7 +37,13 @@ export function parseScenario(json: unknown, file: string): Scenario {
       if ((radio.breakFluxJy === undefined) !== (radio.slopeAbove === undefined)) problems.push("sky.radio: give both breakFluxJy and slopeAbove, or neither");
       if (radio.breakFluxJy !== undefined && !(radio.breakFluxJy > radio.minFluxJy && radio.breakFluxJy < radio.maxFluxJy)) problems.push("sky.radio.breakFluxJy: must lie between minFluxJy and maxFluxJy");
     }
+    const names = COSMOLOGY_PRESET_NAMES as readonly string[];
+    if (!names.includes(s.cosmology)) problems.push(`cosmology: unknown preset '${s.cosmology}' (known: ${names.join(", ")})`);
     const mf = s.sky.clusters?.massFunction;
+    if (mf && names.includes(s.cosmology)) {
+      const p = COSMOLOGY_PRESETS[s.cosmology as keyof typeof COSMOLOGY_PRESETS];
+      if (p.sigma8 === undefined || p.ns === undefined || p.omegaB0 === undefined) problems.push(`cosmology: preset '${s.cosmology}' has no sigma8, ns or omegaB0, which a mass-function draw needs`);
+    }
     if (mf && !(mf.mMaxMsun > mf.mMinMsun)) problems.push("sky.clusters.massFunction.mMaxMsun: must exceed mMinMsun");
     if (mf && !(mf.zMax > mf.zMin)) problems.push("sky.clusters.massFunction.zMax: must exceed zMin");
     const ids = new Set<string>();

@@ -4,3 +4,5 @@ export * from "./mmf/index.js";
 export * from "./photometry/index.js";
 export * from "./search/index.js";
 export * from "./sources/index.js";
+export * from "./ilc/index.js";
+export * from "./aperture/index.js";

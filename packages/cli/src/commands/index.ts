@@ -8,9 +8,10 @@ import { register as registerSearch } from "./search.js";
 import { register as registerMeasure } from "./measure.js";
 import { register as registerSed } from "./sed.js";
 import { register as registerCluster } from "./cluster.js";
+import { register as registerYMap } from "./ymap.js";
 import { register as registerSimulate } from "./simulate.js";
 
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate];
+export const COMMANDS: readonly RegisterCommand[] = [registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap];

@@ -47,6 +47,8 @@ describe("cosine taper and 2-D windows", () => {
     expect(apodisationWindow(4, 3, 0, "tukey")).toAllClose([1], { rtol: 0, atol: 0 });
     expect(() => apodisationWindow(4, 3, -1)).toThrow(UmbraError);
     expect(() => taper1d(4, 1, "hamming" as "cosine")).toThrow(/unknown window kind/);
+    expect(() => apodisationWindow(0, 3, 1)).toThrow(UmbraError);
+    expect(() => apodiseMask(new Float64Array(6), 2.5, 2.4, 1)).toThrow(UmbraError);
   });
 
   it("windowPowerFraction is mean(w²) and windowMoment(w, 4) is mean(w⁴)", () => {

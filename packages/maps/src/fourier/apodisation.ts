@@ -4,6 +4,7 @@
  */
 import { UmbraError } from "@umbra/core";
 import { distanceToRemoved } from "./distance-transform.js";
+import { checkDimension } from "./rfft2-f64.js";
 
 /** Window shapes: `cosine` (pixel-centred sin² taper, never exactly 0) or `tukey` (scipy.signal.windows.tukey, 0 on the edge pixels). */
 export type WindowKind = "cosine" | "tukey";
@@ -22,6 +23,7 @@ function checkWidth(widthPix: number): void {
  * W capped at (n−1)/2 (a Hann window).
  */
 export function taper1d(n: number, widthPix: number, kind: WindowKind): Float64Array {
+  checkDimension("n", n);
   checkWidth(widthPix);
   const w = new Float64Array(n).fill(1);
   if (widthPix === 0) return w;
@@ -62,6 +64,8 @@ export function apodisationWindow(nx: number, ny: number, widthPix: number, kind
  * `edgeAsRemoved` (default true) the map border tapers too.
  */
 export function apodiseMask(mask: ArrayLike<number>, nx: number, ny: number, widthPix: number, edgeAsRemoved = true): Float64Array {
+  checkDimension("nx", nx);
+  checkDimension("ny", ny);
   checkWidth(widthPix);
   const d = distanceToRemoved(mask, nx, ny, edgeAsRemoved);
   for (let i = 0; i < d.length; i++) {

@@ -53,6 +53,9 @@ function edt1d(f: Float64Array, n: number, d: Float64Array, v: Int32Array, z: Fl
  * its distance to the map border + 1). Without it, a mask with no removed pixel gives Infinity.
  */
 export function distanceToRemoved(mask: ArrayLike<number>, nx: number, ny: number, edgeAsRemoved = false): Float64Array {
+  if (!Number.isInteger(nx) || !Number.isInteger(ny) || nx < 1 || ny < 1) {
+    throw new UmbraError("BAD_VALUE", `mask size ${nx}×${ny} must be positive integers`, { field: "mask" });
+  }
   if (mask.length !== nx * ny) throw new UmbraError("BAD_VALUE", `mask has ${mask.length} pixels, expected ${nx}×${ny}`, { field: "mask" });
   const n = Math.max(nx, ny);
   const f = new Float64Array(n);

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { ARCMIN2_PER_SR, RAD_PER_ARCMIN } from "@umbra/core";
-import { cosmologyPreset } from "@umbra/clusters";
+import { clusterScale, cosmologyPreset, gnfwA10, yAtX } from "@umbra/clusters";
 import { crossPowerBinned, ellOfModes, getRfft2Plan } from "@umbra/maps";
 import { componentResponse } from "@umbra/spectra";
 import { lcdmTtClK2 } from "../src/cmb/index.js";
@@ -158,6 +158,52 @@ describe("clusters", () => {
     for (let i = 1; i < f.bands[0]!.map.length; i++) if (f.bands[0]!.map[i]! < f.bands[0]!.map[best]!) best = i;
     expect(Math.abs((best % 256) - c.xPix)).toBeLessThanOrEqual(1);
     expect(Math.abs(Math.floor(best / 256) - c.yPix)).toBeLessThanOrEqual(1);
+  });
+  it("paints the beam-convolved radial profile of the real-space line-of-sight integral (A10) from 0.25 to 3 θ500", () => {
+    // 0.25′ pixels, 1′ beam; expected: yAtX of @umbra/clusters (σ_T/(m_e c²) ∫P dl, Arnaud et al. 2010 eqs. 11–12,
+    // real-space quadrature) convolved with the Gaussian beam by direct 2-D quadrature in polar coordinates
+    const fwhm = 1;
+    const s = scenario({ field: { nx: 256, ny: 256, pixelArcmin: 0.25, centerDeg: [40, -20] } }, { clusters: { list: [{ id: "P", raDeg: 40, decDeg: -20, m500Msun: 6e14, z: 0.3 }], scatterLnY: 0 } }, [
+      { name: "a", frequencyGHz: 150, beamFwhmArcmin: fwhm, unit: "K_CMB", noiseUKArcmin: 0 },
+    ]);
+    const f = simulateField(s, 1);
+    const c = f.clusters[0]!;
+    const resp = componentResponse({ kind: "tsz" }, { frequencyGHz: 150 }, "K_CMB");
+    const cosmo = cosmologyPreset("cmb2018");
+    const profile = gnfwA10({ m500Msun: c.m500Msun, h70: cosmo.h70 });
+    const scale = clusterScale(c.m500Msun, c.z, cosmo);
+    const sigma = fwhm / Math.sqrt(8 * Math.LN2); // arcmin
+    const beamed = (rArcmin: number): number => {
+      let sum = 0;
+      let norm = 0;
+      const nr = 32;
+      const nphi = 48;
+      for (let i = 0; i < nr; i++) {
+        const rp = ((i + 0.5) / nr) * 5 * sigma;
+        const g = Math.exp((-rp * rp) / (2 * sigma * sigma)) * rp;
+        for (let j = 0; j < nphi; j++) {
+          const phi = (2 * Math.PI * (j + 0.5)) / nphi;
+          const d = Math.hypot(rArcmin - rp * Math.cos(phi), rp * Math.sin(phi));
+          sum += g * yAtX(profile, scale, d / c.theta500Arcmin);
+          norm += g;
+        }
+      }
+      return sum / norm;
+    };
+    const map = f.bands[0]!.map;
+    const at = (x: number, y: number): number => {
+      const x0 = Math.floor(x);
+      const y0 = Math.floor(y);
+      const tx = x - x0;
+      const ty = y - y0;
+      const v = (i: number, j: number): number => map[j * 256 + i]!;
+      return (1 - tx) * (1 - ty) * v(x0, y0) + tx * (1 - ty) * v(x0 + 1, y0) + (1 - tx) * ty * v(x0, y0 + 1) + tx * ty * v(x0 + 1, y0 + 1);
+    };
+    for (const xr of [0.25, 0.5, 1, 2, 3]) {
+      const rPix = (xr * c.theta500Arcmin) / 0.25;
+      const got = (at(c.xPix + rPix, c.yPix) + at(c.xPix - rPix, c.yPix) + at(c.xPix, c.yPix + rPix) + at(c.xPix, c.yPix - rPix)) / 4 / resp;
+      expect(got).toAllClose(beamed(xr * c.theta500Arcmin), { rtol: 0.01 });
+    }
   });
   it("keeps a listed cluster outside the grid in the truth (inField false) without painting it", () => {
     const bands = [{ name: "a", frequencyGHz: 150, beamFwhmArcmin: 1, unit: "K_CMB", noiseUKArcmin: 0 }];

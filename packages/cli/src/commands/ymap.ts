@@ -2,15 +2,18 @@
  * `umbra ymap`: a Compton-y map from a band manifest by the ILC family (@umbra/estimators
  * buildYMap): standard, constrained (deprojecting the CMB and/or a dust SED) or scale-dependent.
  * Writes the y map as FITS (WCS of the first band, effective beam and provenance in the header),
- * its noise power spectrum as CSV beside it (`<out>.noise.csv`), and the ILC report (weights per
+ * its noise power spectrum as CSV beside it (`<out>.noise.csv`; with `--catalog`, measured with the
+ * catalogued clusters cut out), and the ILC report (weights per
  * band and ell window, bias fraction per window, condition numbers) as JSON (`<out>.ilc.json`);
  * `--json` also prints that report on stdout.
  */
 import { basename } from "node:path";
 import type { Command } from "commander";
 import { UmbraError } from "@umbra/core";
-import { buildYMap, ilcBandsFromStack, loadBandStack, parseEllWindows, DEPROJECT_KINDS, type DeprojectKind, type IlcKind, type YMapOptions } from "@umbra/estimators";
-import { writeCsvAtomic, writeFits, writeTextAtomic, type Provenance } from "@umbra/maps";
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { buildYMap, ilcBandsFromStack, loadBandStack, parseEllWindows, yMapNoisePower, DEPROJECT_KINDS, type DeprojectKind, type IlcKind, type YMapOptions } from "@umbra/estimators";
+import { readClusterCatalog, worldToPixel, writeCsvAtomic, writeFits, writeTextAtomic, type Provenance } from "@umbra/maps";
 import { VERSION } from "../version.js";
 
 interface YMapCliOptions {
@@ -26,6 +29,8 @@ interface YMapCliOptions {
   effectiveFwhm?: string;
   teKev?: string;
   apodisation?: string;
+  catalog?: string;
+  holeArcmin: string;
   json?: boolean;
 }
 
@@ -36,7 +41,7 @@ function num(name: string, text: string, ok: (v: number) => boolean, why: string
 }
 
 /** Parse and check the command's options into buildYMap options (exported for tests). */
-export function yMapOptionsFrom(o: Omit<YMapCliOptions, "bands" | "out" | "json">): YMapOptions {
+export function yMapOptionsFrom(o: Omit<YMapCliOptions, "bands" | "out" | "json" | "catalog" | "holeArcmin">): YMapOptions {
   const kinds: readonly string[] = ["standard", "constrained", "scale"];
   if (!kinds.includes(o.ilc)) throw new UmbraError("BAD_OPTION", `--ilc ${o.ilc}: use standard, constrained or scale`, { field: "ilc", value: o.ilc });
   const ilc = o.ilc as IlcKind;
@@ -75,8 +80,26 @@ async function yMapAction(o: YMapCliOptions): Promise<void> {
   const stack = await loadBandStack(o.bands);
   for (const w of stack.warnings) process.stderr.write(`umbra: warning: ${w}\n`);
   const product = buildYMap(ilcBandsFromStack(stack), stack.geometry, options);
-  const settings: Record<string, unknown> = { command: "ymap", ...options, dust: options.dust };
-  const provenance: Provenance = { tool: "umbra", version: VERSION, settings, inputs: stack.inputs.map((i) => ({ file: basename(i.path), sha256: i.sha256 })) };
+  // with a catalogue, the noise power is measured with every catalogued cluster cut out
+  let noisePower = product.noisePower;
+  let noiseNote = "power of the y map itself (clusters included)";
+  if (o.catalog !== undefined) {
+    const hole = num("hole-arcmin", o.holeArcmin, (v) => v > 0, "must be a positive number of arcmin");
+    const catalog = await readClusterCatalog(o.catalog);
+    for (const p of catalog.problems) process.stderr.write(`umbra: warning: ${o.catalog}, row ${p.row}, column '${p.column}': ${p.message} (row skipped)\n`);
+    const positions = catalog.rows.flatMap((r) => {
+      if (stack.wcs === null) return [];
+      const p = worldToPixel(stack.wcs, r.raDeg, r.decDeg);
+      const radiusArcmin = r.theta500Arcmin !== null ? Math.max(hole, 3 * r.theta500Arcmin) : hole;
+      return Number.isFinite(p.ix) && Number.isFinite(p.iy) ? [{ xPix: p.ix, yPix: p.iy, radiusArcmin }] : [];
+    });
+    noisePower = yMapNoisePower(product, { positions, holeRadiusArcmin: hole });
+    noiseNote = `power of the y map with ${positions.length} catalogued clusters cut out (radius max(hole, 3 theta500))`;
+  }
+  const settings: Record<string, unknown> = { command: "ymap", ...options, catalog: o.catalog === undefined ? null : basename(o.catalog), holeArcmin: o.catalog === undefined ? null : Number(o.holeArcmin) };
+  const inputs = stack.inputs.map((i) => ({ file: basename(i.path), sha256: i.sha256 }));
+  if (o.catalog !== undefined) inputs.push({ file: basename(o.catalog), sha256: createHash("sha256").update(await readFile(o.catalog)).digest("hex") });
+  const provenance: Provenance = { tool: "umbra", version: VERSION, settings, inputs };
   await writeFits(
     o.out,
     [
@@ -98,7 +121,7 @@ async function yMapAction(o: YMapCliOptions): Promise<void> {
     { provenance },
   );
   const base = stripFits(o.out);
-  const rows = Array.from(product.noisePower.cl, (cl, i) => ({ ell: product.noisePower.ellCenters[i] as number, cl_sr: cl, modes: product.noisePower.modeCounts[i] as number }));
+  const rows = Array.from(noisePower.cl, (cl, i) => ({ ell: noisePower.ellCenters[i] as number, cl_sr: cl, modes: noisePower.modeCounts[i] as number }));
   await writeCsvAtomic(`${base}.noise.csv`, ["ell", "cl_sr", "modes"], rows);
   const report = {
     ymap: basename(o.out),
@@ -120,6 +143,7 @@ async function yMapAction(o: YMapCliOptions): Promise<void> {
       weights: Object.fromEntries(product.bands.map((b, i) => [b, d.weights[i]])),
     })),
     noise_power: basename(`${base}.noise.csv`),
+    noise_power_note: noiseNote,
     apodisation: product.apodisation,
     provenance,
   };
@@ -148,6 +172,8 @@ export function register(program: Command): void {
     .option("--effective-fwhm <arcmin>", "FWHM in arcmin of the y map's Gaussian beam (default: the widest band's)")
     .option("--te-kev <keV>", "electron temperature for a relativistic tSZ response (default: non-relativistic)")
     .option("--apodisation <pixels>", "width in pixels of the edge taper used for the covariance (default: 5 % of the smaller side)")
+    .option("--catalog <clusters.csv>", "cluster catalogue (CSV: id,ra_deg,dec_deg[,theta500_arcmin]); the noise power is then measured with these clusters cut out")
+    .option("--hole-arcmin <arcmin>", "radius cut out around each catalogued cluster for the noise power (at least 3 theta500 when given)", "5")
     .option("--json", "also print the ILC report (JSON) on stdout")
     .action(yMapAction);
 }

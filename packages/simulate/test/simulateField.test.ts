@@ -274,3 +274,29 @@ describe("determinism", () => {
     expect(Buffer.from(a.bands[0]!.map.buffer).equals(Buffer.from(c.bands[0]!.map.buffer))).toBe(false);
   });
 });
+
+describe("log-normal dust", () => {
+  it("keeps the target variance (the two-point function at zero lag), a zero mean, and is positively skewed", () => {
+    const dust = { refFrequencyGHz: 220, dellAt3000UK2: 50, ellIndex: -1.2, beta: 1.6, temperatureK: 20, bandCorrelation: 1, distribution: "lognormal", lognormalRelativeRms: 0.8 };
+    const bands = [{ name: "d", frequencyGHz: 220, beamFwhmArcmin: 0.01, unit: "K_CMB", noiseUKArcmin: 0 }];
+    const f = simulateField(scenario({}, { dust }, bands), 21);
+    const map = f.bands[0]!.map;
+    const { mean, variance } = meanVar(map);
+    // target variance: Σ_modes w C(ℓ)/ΔΩ / N (the covariance at zero lag of the FFT normalisation)
+    const plan = getRfft2Plan(256, 256);
+    const ells = ellOfModes(plan.layout, f.geometry);
+    const c3000 = (2 * Math.PI * 50e-12) / (3000 * 3001);
+    const pix = (RAD_PER_ARCMIN * RAD_PER_ARCMIN);
+    let target = 0;
+    for (let m = 1; m < ells.length; m++) if (ells[m]! > 0) target += (plan.layout.hermitianWeight[m]! * c3000 * (ells[m]! / 3000) ** -1.2) / pix;
+    target /= 256 * 256;
+    expect(variance).toAllClose(target, { rtol: 0.1 });
+    expect(Math.abs(mean)).toBeLessThan(0.1 * Math.sqrt(variance));
+    let m3 = 0;
+    for (const x of map) m3 += (x - mean) ** 3;
+    const skew = m3 / map.length / variance ** 1.5;
+    // a log-normal field of relative rms s has skewness 3s + s³ (Johnson & Kotz; from memory): 2.9 for s = 0.8
+    expect(skew).toBeGreaterThan(1.5);
+    expect(skew).toBeLessThan(4.5);
+  });
+});

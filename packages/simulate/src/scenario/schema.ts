@@ -108,6 +108,10 @@ const dustSchema = z.strictObject({
   temperatureK: z.number().min(3).max(100),
   /** Correlation coefficient of the field between any two bands (1: one template scaled). */
   bandCorrelation: z.number().min(0).max(1).default(0.95),
+  /** Gaussian field, or log-normal with the same two-point function (Coles & Jones 1991). */
+  distribution: z.enum(["gaussian", "lognormal"]).default("gaussian"),
+  /** For a log-normal field: rms over mean of the emission (sets how skewed it is). */
+  lognormalRelativeRms: z.number().gt(0).max(5).default(0.5),
 });
 
 const radioSchema = z.strictObject({

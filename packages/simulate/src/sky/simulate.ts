@@ -17,6 +17,7 @@ import { drawClusters, type TrueCluster } from "./clusterTruth.js";
 import { relativeDepth } from "./depth.js";
 import { fieldGeometry, fieldWcs } from "./field.js";
 import { addScaledModes, modeAmplitudes, whiteModes } from "./modes.js";
+import { exponentiate, lognormalPlan } from "./lognormal.js";
 import { paintClusters } from "./paintClusters.js";
 import { drawRadioSources, pixelSolidAngleSr, type TrueRadioSource } from "./radio.js";
 
@@ -116,21 +117,44 @@ export function simulateField(scenario: Scenario, seed: number, opts: SimulateOp
 
   const dust = scenario.sky.dust;
   if (dust) {
+    const ones = new Float64Array(layout.modeCount).fill(1);
     const c3000 = (2 * Math.PI * dust.dellAt3000UK2 * 1e-12) / (3000 * 3001);
     const a = modeAmplitudes(ells, (l) => c3000 * (l / 3000) ** dust.ellIndex, pixSr);
     const comp = { kind: "dust", beta: dust.beta, temperatureK: dust.temperatureK, refFrequencyGHz: dust.refFrequencyGHz } as const;
     const ref = componentResponse(comp, { frequencyGHz: dust.refFrequencyGHz }, "K_CMB");
     const drng = rng.fork("dust");
-    const common = whiteModes(plan, drng.fork("common"), scratch);
-    const own = new Float64Array(layout.spectrumLength);
-    scenario.bands.forEach((b, i) => {
-      const scale = componentResponse(comp, bandSpecs[i]!, "K_CMB") / ref;
-      addScaledModes(spectra[i]!, common, a, scale * Math.sqrt(dust.bandCorrelation));
-      if (dust.bandCorrelation < 1) {
-        whiteModes(plan, drng.fork(`band:${b.name}`), scratch, own);
-        addScaledModes(spectra[i]!, own, a, scale * Math.sqrt(1 - dust.bandCorrelation));
-      }
-    });
+    if (dust.distribution === "lognormal") {
+      // the log-normal transform acts on the Gaussian field g of each band (common √r, own √(1 − r));
+      // band correlation: (exp(r σ_g²) − 1)/(exp(σ_g²) − 1), close to r for weak skewness (from the covariance relation above)
+      const ln = lognormalPlan(plan, a, dust.lognormalRelativeRms, scratch);
+      const common = whiteModes(plan, drng.fork("common"), scratch);
+      const own = new Float64Array(layout.spectrumLength);
+      const g = new Float64Array(layout.spectrumLength);
+      scenario.bands.forEach((b, i) => {
+        const scale = componentResponse(comp, bandSpecs[i]!, "K_CMB") / ref;
+        g.fill(0);
+        addScaledModes(g, common, ln.gaussianAmplitude, Math.sqrt(dust.bandCorrelation));
+        if (dust.bandCorrelation < 1) {
+          whiteModes(plan, drng.fork(`band:${b.name}`), scratch, own);
+          addScaledModes(g, own, ln.gaussianAmplitude, Math.sqrt(1 - dust.bandCorrelation));
+        }
+        plan.inverse(g, scratch);
+        exponentiate(scratch, ln);
+        plan.forward(scratch, own);
+        addScaledModes(spectra[i]!, own, ones, scale);
+      });
+    } else {
+      const common = whiteModes(plan, drng.fork("common"), scratch);
+      const own = new Float64Array(layout.spectrumLength);
+      scenario.bands.forEach((b, i) => {
+        const scale = componentResponse(comp, bandSpecs[i]!, "K_CMB") / ref;
+        addScaledModes(spectra[i]!, common, a, scale * Math.sqrt(dust.bandCorrelation));
+        if (dust.bandCorrelation < 1) {
+          whiteModes(plan, drng.fork(`band:${b.name}`), scratch, own);
+          addScaledModes(spectra[i]!, own, a, scale * Math.sqrt(1 - dust.bandCorrelation));
+        }
+      });
+    }
   }
 
   const cosmo = cosmologyPreset(scenario.cosmology);

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import fc from "fast-check";
 import { createRng, RAD_PER_ARCMIN } from "@umbra/core";
 import { besselJ0, getRfft2Plan, type FlatGeometry } from "@umbra/maps";
 import { apertureSum, apertureVarianceFromPower, apertureVarianceRadial, besselJ1, interpolatePower, pixelAreaArcmin2, randomApertureScatter } from "../src/aperture/index.js";
@@ -139,5 +140,26 @@ describe("radial aperture variance", () => {
     const radial = apertureVarianceRadial(spec, power, ellMax, 20);
     // pixel-centre membership vs a continuous disc, and a Riemann sum on a 128′ grid: a few per cent
     expect(radial).toAllClose(exact, { rtol: 0.02 }); // measured 0.75 %
+  });
+});
+
+describe("aperture photometry is linear", () => {
+  it("Y_ap(a·x + b·z) = a·Y_ap(x) + b·Y_ap(z) at any position (property)", () => {
+    const geom = geomOf(64, 0.5);
+    const rng = createRng(9);
+    const x = new Float64Array(64 * 64);
+    const z = new Float64Array(64 * 64);
+    rng.fillNormal(x);
+    rng.fillNormal(z);
+    const spec = { radiusArcmin: 3, annulusInnerArcmin: 4, annulusOuterArcmin: 5.5 };
+    fc.assert(
+      fc.property(fc.double({ min: -3, max: 3, noNaN: true }), fc.double({ min: -3, max: 3, noNaN: true }), fc.double({ min: 12, max: 51, noNaN: true }), fc.double({ min: 12, max: 51, noNaN: true }), (a, b, px, py) => {
+        const mix = x.map((v, i) => a * v + b * (z[i] as number));
+        const lhs = apertureSum(mix, geom, px, py, spec).yArcmin2;
+        const rhs = a * apertureSum(x, geom, px, py, spec).yArcmin2 + b * apertureSum(z, geom, px, py, spec).yArcmin2;
+        expect(lhs).toAllClose(rhs, { rtol: 1e-10, atol: 1e-12 });
+      }),
+      { numRuns: 100, seed: 4 },
+    );
   });
 });

@@ -58,18 +58,30 @@ export interface ClusterDraw {
   expectedCount: number | null;
 }
 
-/** The halo count grid of a mass-function scenario over the field's area (flat-sky: nx·ny pixels). */
+const gridCache = new Map<string, HaloCountGrid>();
+
+/**
+ * The halo count grid of a mass-function scenario over the field's area (flat-sky: nx·ny pixels).
+ * Grids are cached per (cosmology label, mass and redshift range, area): realisations of one
+ * scenario share one grid.
+ */
 export function scenarioHaloGrid(scenario: Scenario, cosmo: Cosmology): HaloCountGrid | null {
   const mf = scenario.sky.clusters?.massFunction;
   if (!mf) return null;
   const pixSr = scenario.field.pixelArcmin ** 2 / ARCMIN2_PER_SR;
-  return haloCountGrid(linearPower(cosmo), {
+  const key = JSON.stringify([cosmo.label, cosmo.h, cosmo.omegaM0, cosmo.omegaB0, cosmo.sigma8, cosmo.ns, mf, scenario.field.nx, scenario.field.ny, scenario.field.pixelArcmin]);
+  const hit = gridCache.get(key);
+  if (hit) return hit;
+  if (gridCache.size > 16) gridCache.clear();
+  const grid = haloCountGrid(linearPower(cosmo), {
     mMinMsun: mf.mMinMsun,
     mMaxMsun: mf.mMaxMsun,
     zMin: mf.zMin,
     zMax: mf.zMax,
     areaSr: scenario.field.nx * scenario.field.ny * pixSr,
   });
+  gridCache.set(key, grid);
+  return grid;
 }
 
 /**

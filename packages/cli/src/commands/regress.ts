@@ -56,6 +56,8 @@ export interface RealisationRun {
 
 /** Options of {@link runRealisation}. */
 export interface RealisationOptions {
+  /** Pass the simulated ivar maps on (default true). */
+  readonly useIvar?: boolean;
   readonly search?: boolean;
   readonly snrMin?: number;
   readonly searchSizesArcmin?: readonly number[];
@@ -65,7 +67,8 @@ export interface RealisationOptions {
 
 /** Simulate one sky and measure it (see module doc). Clusters near the edge or off the field are left out. */
 export function runRealisation(field: SimulatedField, opts: RealisationOptions = {}): RealisationRun {
-  const stack = stackFromSimulatedField(field);
+  const full = stackFromSimulatedField(field);
+  const stack = opts.useIvar === false ? { ...full, bands: full.bands.map((b) => ({ ...b, ivar: null })) } : full;
   // every cluster in the field is passed on (the ones near the edge are fitted for the covariance
   // cleaning and come back flagged); the statistics use those away from the edge
   const truth = field.clusters.filter((c) => c.inField && !c.nearEdge);

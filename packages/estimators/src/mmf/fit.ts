@@ -80,6 +80,7 @@ export function fitAtPosition(
   py: number,
   scratch: FitScratch = createFitScratch(bank),
   nodeTable: Float64Array = sedNodeTable(bank, seds),
+  combined: readonly Float64Array[] | null = null,
 ): ComponentFit {
   const nb = bank.nBands;
   const nc = seds.length;
@@ -97,12 +98,15 @@ export function fitAtPosition(
     ey[2 * k] = Math.cos(a);
     ey[2 * k + 1] = Math.sin(a);
   }
-  const T = new Float64Array(nb);
+  // with `combined` (D_c = Σ_j A_jc E_j per component, see combineSeds) the sum runs over
+  // components instead of bands
+  const W = combined ?? bank.whitened;
+  const nw = W.length;
+  const T = new Float64Array(nw);
   const F = new Float64Array(nc * nc);
   const theta2 = thetaRad * thetaRad;
   const { index, frac } = bank.grid;
   const ells = bank.ells;
-  const W = bank.whitened;
   const ncc = nc * nc;
   for (let m = 0; m < modeCount; m++) {
     const g = profileAt(table, (ells[m] as number) * thetaRad) * theta2;
@@ -117,7 +121,7 @@ export function fitAtPosition(
     const yi = ey[2 * ky + 1] as number;
     const pr = xr * yr - xi * yi;
     const pi = xr * yi + xi * yr;
-    for (let j = 0; j < nb; j++) {
+    for (let j = 0; j < nw; j++) {
       const e = W[j] as Float64Array;
       T[j] += w * ((e[2 * m] as number) * pr - (e[2 * m + 1] as number) * pi);
     }
@@ -129,6 +133,10 @@ export function fitAtPosition(
   const norm = 1 / (bank.nPix * bank.pixelSr);
   const b = new Float64Array(nc);
   for (let c = 0; c < nc; c++) {
+    if (combined !== null) {
+      b[c] = (T[c] as number) * norm;
+      continue;
+    }
     const a = seds[c] as Float64Array;
     let s = 0;
     for (let j = 0; j < nb; j++) s += (a[j] as number) * (T[j] as number);
@@ -154,4 +162,18 @@ export function fitAtPosition(
     if (!(cov.get(c, c) > 0)) throw new UmbraError("BAD_DATA", `matched-filter variance of component ${c} is not positive`);
   }
   return { amplitudes, covariance };
+}
+
+/** D_c = Σ_j A_jc E_j for each component: the whitened spectra combined per SED (for the fast path of fitAtPosition). */
+export function combineSeds(bank: FilterBank, seds: readonly Float64Array[]): Float64Array[] {
+  return seds.map((a) => {
+    const out = new Float64Array(bank.layout.spectrumLength);
+    for (let j = 0; j < bank.nBands; j++) {
+      const aj = a[j] as number;
+      if (aj === 0) continue;
+      const e = bank.whitened[j] as Float64Array;
+      for (let q = 0; q < out.length; q++) out[q] += aj * (e[q] as number);
+    }
+    return out;
+  });
 }

@@ -32,13 +32,48 @@ export interface CovarianceOptions {
   readonly maxCondition?: number;
   /** Band names for error messages. */
   readonly bandNames?: readonly string[];
+  /** The beams the spectra were deconvolved with (to normalise bins a band is partly blind in). */
+  readonly beams?: readonly ((ells: Float64Array) => Float64Array)[];
+}
+
+/** Per band and bin, the Hermitian-weighted fraction of modes with B ≥ MIN_BEAM_TRANSFER. */
+function liveFractions(beams: readonly ((ells: Float64Array) => Float64Array)[], ells: Float64Array, w: Float64Array, edges: Float64Array): number[][] {
+  const nBins = edges.length - 1;
+  const bin = new Int32Array(ells.length).fill(-1);
+  const tot = new Float64Array(nBins);
+  for (let m = 0; m < ells.length; m++) {
+    const l = ells[m] as number;
+    if (l < (edges[0] as number) || l >= (edges[nBins] as number)) continue;
+    let a = 0;
+    let b = nBins;
+    while (b - a > 1) {
+      const mid = (a + b) >> 1;
+      if (l >= (edges[mid] as number)) a = mid;
+      else b = mid;
+    }
+    bin[m] = a;
+    tot[a] += w[m] as number;
+  }
+  return beams.map((beam) => {
+    const b = beam(ells);
+    const liveW = new Float64Array(nBins);
+    for (let m = 0; m < ells.length; m++) {
+      const k = bin[m] as number;
+      if (k >= 0 && (b[m] as number) >= MIN_BEAM_TRANSFER) liveW[k] += w[m] as number;
+    }
+    return Array.from(liveW, (x, k) => ((tot[k] as number) > 0 ? x / (tot[k] as number) : 0));
+  });
 }
 
 /** Deconvolved noise power (sr · K²) given to a band in a bin where it sees nothing. */
-export const BLIND_NOISE = 1e200;
+export const BLIND_NOISE = 1e100;
 
-/** Beam transfers below this are treated as zero (the mode carries no signal in that band). */
-export const MIN_BEAM_TRANSFER = 1e-20;
+/**
+ * Beam transfers below this are treated as zero: the band is blind in that mode (its deconvolved
+ * noise would be over 1e16 times its in-band level, and such factors break the Cholesky
+ * factorisation of the band covariance; measured on a 30 GHz band with a 7 arcmin beam).
+ */
+export const MIN_BEAM_TRANSFER = 1e-8;
 
 /**
  * Divide each band spectrum by its beam transfer per mode (beams[i](ells)); modes where
@@ -153,10 +188,24 @@ export function estimateBandCovariance(
   }
   const c = centres as Float64Array;
   const n = counts as Float64Array;
+  // the binned average ran over every mode; a band blind in part of a bin (deconvolved value 0)
+  // must be normalised by the fraction of modes where it (and its partner) can see
+  if (opts.beams !== undefined) {
+    const live = liveFractions(opts.beams, ells, layout.hermitianWeight, edges);
+    for (let k = 0; k < nBins; k++) {
+      for (let i = 0; i < nb; i++) {
+        for (let j = 0; j < nb; j++) {
+          const f = Math.min(live[i]![k]!, live[j]![k]!);
+          values[k * nb2 + i * nb + j] = f > 0 ? (values[k * nb2 + i * nb + j] as number) / f : 0;
+        }
+      }
+    }
+  }
   // a band with no usable mode in a bin (beam below MIN_BEAM_TRANSFER everywhere in it) is blind
-  // there: give it a huge noise so the filter ignores it
+  // there: give it a huge noise so the filter ignores it. A band with no power in any bin where it
+  // can see is an error (a constant, all-zero or all-NaN map).
   for (let i = 0; i < nb; i++) {
-    let dead = 0;
+    let seen = 0;
     for (let k = 0; k < nBins; k++) {
       const d = values[k * nb2 + i * nb + i] as number;
       if (!Number.isFinite(d) || d < 0) {
@@ -164,17 +213,16 @@ export function estimateBandCovariance(
         throw new UmbraError("BAD_DATA", `band power is not finite at ell ≈ ${(c[k] as number).toFixed(0)}`, { band });
       }
       if (d === 0) {
-        dead++;
         for (let j = 0; j < nb; j++) {
           values[k * nb2 + i * nb + j] = 0;
           values[k * nb2 + j * nb + i] = 0;
         }
         values[k * nb2 + i * nb + i] = BLIND_NOISE;
-      }
+      } else seen++;
     }
-    if (dead > nBins / 2) {
+    if (seen === 0) {
       const band = opts.bandNames?.[i] ?? String(i);
-      throw new UmbraError("BAD_DATA", `no power in ${dead} of ${nBins} ell bins (map constant, all zero, or beam far too wide?)`, { band });
+      throw new UmbraError("BAD_DATA", "no power at any multipole (map constant, all zero or all missing?)", { band });
     }
   }
   smoothBins(values, n, nb, opts.smoothPasses ?? 1);
@@ -185,7 +233,7 @@ export function estimateBandCovariance(
     const a = new Matrix(nb, nb);
     for (let i = 0; i < nb; i++) {
       for (let j = 0; j < nb; j++) {
-        const d = Math.sqrt((values[k * nb2 + i * nb + i] as number) * (values[k * nb2 + j * nb + j] as number));
+        const d = Math.sqrt(values[k * nb2 + i * nb + i] as number) * Math.sqrt(values[k * nb2 + j * nb + j] as number);
         a.set(i, j, (values[k * nb2 + i * nb + j] as number) / d);
       }
     }

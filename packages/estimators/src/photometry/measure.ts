@@ -9,9 +9,10 @@
 import { RAD_PER_ARCMIN, UmbraError, createRng } from "@umbra/core";
 import { worldToPixel } from "@umbra/maps";
 import { buildFilterBank, rewhitenBank, type FilterBank } from "../mmf/bank.js";
-import { createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
+import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
 import { prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileTable } from "../mmf/profile.js";
+import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares } from "../mmf/localNoise.js";
 import { deconvolveBeams, estimateBandCovariance } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
 import type { BandStack } from "../stack/types.js";
@@ -38,6 +39,8 @@ interface Target {
   readonly teKeV: number;
   readonly flags: ClusterFlag[];
   readonly seds: Float64Array[];
+  /** Key of the SED set (same key ⇒ same SED arrays). */
+  readonly sedKey: string;
 }
 
 interface TargetFit {
@@ -84,7 +87,7 @@ function resolveTargets(stack: BandStack, prep: PreparedStack, clusters: readonl
     flags.push(...positionFlags(pos.ix, pos.iy, radiusArcmin / pixArcmin, stack.nx, stack.ny, prep.window, prep.inpainted));
     const seds = [tsz(teKeV)];
     if (opts.fitKsz === true) seds.push(opts.seds.ksz());
-    return { c, px: pos.ix, py: pos.iy, thetaArcmin, thetaSource, teKeV, flags, seds };
+    return { c, px: pos.ix, py: pos.iy, thetaArcmin, thetaSource, teKeV, flags, seds, sedKey: `${teKeV}|${opts.fitKsz === true ? "ksz" : ""}` };
   });
 }
 
@@ -93,13 +96,12 @@ function isFatal(flags: readonly ClusterFlag[]): boolean {
 }
 
 function fitTarget(bank: FilterBank, table: ProfileTable, t: Target, scanSizes: readonly number[], scratch: ReturnType<typeof createFitScratch>): TargetFit {
-  const nodeTable = sedNodeTable(bank, t.seds);
+  const nodeTable = nodeTableFor(bank, t);
   const at = (thetaArcmin: number) => fitAtPosition(bank, table, thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratch, nodeTable);
   if (t.thetaArcmin !== null) {
     const f = at(t.thetaArcmin);
     return { thetaArcmin: t.thetaArcmin, amplitudes: f.amplitudes, covariance: f.covariance, scan: null };
   }
-  const nc = t.seds.length;
   let best: TargetFit | null = null;
   let bestSnr = -Infinity;
   const scan: ScanPoint[] = [];
@@ -114,7 +116,6 @@ function fitTarget(bank: FilterBank, table: ProfileTable, t: Target, scanSizes: 
       best = { thetaArcmin: th, amplitudes: f.amplitudes, covariance: f.covariance, scan };
     }
   }
-  void nc;
   return best as TargetFit;
 }
 
@@ -141,18 +142,34 @@ function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[
   });
 }
 
-function painted(targets: readonly Target[], fits: readonly (TargetFit | null)[], nb: number): PaintedCluster[] {
+function painted(targets: readonly Target[], fits: readonly (TargetFit | null)[]): PaintedCluster[] {
   const out: PaintedCluster[] = [];
   targets.forEach((t, k) => {
     const f = fits[k];
     if (f == null) return;
-    const amp = new Float64Array(nb);
+    const thetaRad = f.thetaArcmin * RAD_PER_ARCMIN;
     t.seds.forEach((sed, c) => {
-      for (let i = 0; i < nb; i++) amp[i] += (f.amplitudes[c] as number) * (sed[i] as number);
+      out.push({ px: t.px, py: t.py, thetaRad, bandAmplitudes: sed.map((a) => a * (f.amplitudes[c] as number)), shared: { sed, amplitude: f.amplitudes[c] as number } });
     });
-    out.push({ px: t.px, py: t.py, thetaRad: f.thetaArcmin * RAD_PER_ARCMIN, bandAmplitudes: amp });
   });
   return out;
+}
+
+const nodeTables = new WeakMap<FilterBank, Map<string, Float64Array>>();
+
+/** The Fisher node table of a target's SEDs on `bank`, cached per bank and SED key. */
+function nodeTableFor(bank: FilterBank, t: Target): Float64Array {
+  let m = nodeTables.get(bank);
+  if (m === undefined) {
+    m = new Map();
+    nodeTables.set(bank, m);
+  }
+  let nt = m.get(t.sedKey);
+  if (nt === undefined) {
+    nt = sedNodeTable(bank, t.seds);
+    m.set(t.sedKey, nt);
+  }
+  return nt;
 }
 
 /**
@@ -172,59 +189,70 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
   const beams = stack.bands.map((b) => b.beam);
   const names = stack.bands.map((b) => b.name);
   const covFrom = (spectra: readonly Float64Array[]): BandCovariance =>
-    estimateBandCovariance(deconvolveBeams(spectra, beams, prep.ells), prep.plan.layout, stack.geometry, prep.ells, { windowMeanSquare: prep.windowMeanSquare, bandNames: names, ...opts.covarianceOptions });
+    estimateBandCovariance(deconvolveBeams(spectra, beams, prep.ells), prep.plan.layout, stack.geometry, prep.ells, { windowMeanSquare: prep.windowMeanSquare, bandNames: names, beams, ...opts.covarianceOptions });
   const bankFor = (cov: BandCovariance, spectra: readonly Float64Array[] = prep.spectra): FilterBank =>
     buildFilterBank({ layout: prep.plan.layout, geometry: stack.geometry, ells: prep.ells, spectra, beams, covariance: cov, deproject: opts.deproject });
   let cov = opts.noiseCovariance ?? covFrom(prep.spectra);
   let bank = bankFor(cov);
   let fits = fitAll(bank, table, targets, scanSizes);
+  // Each iteration: subtract every cluster's current model, re-estimate the covariance from the
+  // cleaned maps (Zubeldia et al. 2023), and update every cluster by a fit on the residual:
+  // a ← a + fit(data − Σ models). The update is one Jacobi step of the joint least-squares fit of
+  // all clusters, so neighbours stop biasing each other through the compensated filter's negative
+  // ring (fitting one cluster's own template returns its amplitude exactly). Errors stay the
+  // single-cluster ones, 1/Φ_cc (a slight underestimate for heavy blends). Sizes stay as chosen.
+  const maxIt = opts.maxIterations ?? 4;
+  const tol = opts.tolerance ?? 0.02;
   let iterations = 0;
   let lastChange = NaN;
-  if (opts.noiseCovariance === undefined) {
-    const maxIt = opts.maxIterations ?? 4;
-    const tol = opts.tolerance ?? 0.02;
-    for (let it = 0; it < maxIt; it++) {
-      const cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits, stack.bands.length), -1);
+  let cleaned: Float64Array[] = [];
+  for (let it = 0; it < maxIt; it++) {
+    cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits), -1);
+    if (opts.noiseCovariance === undefined) {
       cov = covFrom(cleaned);
       bank = bankFor(cov);
-      const next = fitAll(bank, table, targets, scanSizes);
-      lastChange = 0;
-      next.forEach((f, k) => {
-        const o = fits[k];
-        if (f == null || o == null || isFatal(targets[k]!.flags)) return;
-        const d = Math.abs((f.amplitudes[0] as number) - (o.amplitudes[0] as number)) / Math.sqrt(f.covariance[0] as number);
-        if (d > lastChange) lastChange = d;
-      });
-      fits = next;
-      iterations = it + 1;
-      if (lastChange < tol) break;
     }
-  }
-  // neighbours: a joint fit of all clusters by Jacobi iteration. Each cluster is re-fitted on the
-  // data minus every other cluster's current model: a ← a + fit(data − Σ models), which converges
-  // to the joint least-squares solution when the clusters' templates overlap little under the
-  // filter (the compensated filter's negative ring would otherwise bias a cluster by its
-  // neighbours). Errors stay the single-cluster ones, 1/Φ_cc (a slight underestimate for blends).
-  const joint = opts.jointIterations ?? 3;
-  for (let j = 0; j < joint; j++) {
-    const resid = rewhitenBank(bank, paintClusters(bank, table, prep.spectra, painted(targets, fits, stack.bands.length), -1));
+    const resid = rewhitenBank(bank, cleaned);
     const scratchJ = createFitScratch(bank);
+    const combinedCache = new Map<string, Float64Array[]>();
+    lastChange = 0;
     fits = fits.map((f, k) => {
       if (f === null) return null;
       const t = targets[k] as Target;
-      const d = fitAtPosition(resid, table, f.thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratchJ, sedNodeTable(bank, t.seds));
+      let comb = combinedCache.get(t.sedKey);
+      if (comb === undefined) {
+        comb = combineSeds(resid, t.seds);
+        combinedCache.set(t.sedKey, comb);
+      }
+      const d = fitAtPosition(resid, table, f.thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratchJ, nodeTableFor(bank, t), comb);
       const amplitudes = f.amplitudes.map((a, c) => a + (d.amplitudes[c] as number));
-      return { ...f, amplitudes };
+      const change = Math.abs(d.amplitudes[0] as number) / Math.sqrt(d.covariance[0] as number);
+      if (!isFatal(t.flags) && change > lastChange) lastChange = change;
+      return { ...f, amplitudes, covariance: d.covariance };
+    });
+    iterations = it + 1;
+    if (lastChange < tol) break;
+  }
+  if (maxIt > 0) cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits), -1);
+  // inhomogeneous depth: scale each cluster's covariance by the local white-noise level (ivar maps)
+  if (stack.bands.some((b) => b.ivar !== null)) {
+    const model = whiteNoiseModel(stack.bands.map((b) => b.ivar), prep.window);
+    fits = fits.map((f, k) => {
+      if (f === null) return null;
+      const t = targets[k] as Target;
+      const sigma = Math.sqrt(f.covariance[0] as number);
+      const shares = whiteNoiseShares(bank, table, f.thetaArcmin * RAD_PER_ARCMIN, t.seds[0] as Float64Array, sigma, model.meanVariance);
+      const p = Math.min(stack.ny - 1, Math.max(0, Math.round(t.py))) * stack.nx + Math.min(stack.nx - 1, Math.max(0, Math.round(t.px)));
+      const r = localSigmaFactor(shares, sigma, model, p);
+      return { ...f, covariance: f.covariance.map((c) => c * r * r) };
     });
   }
   // random positions on the cluster-subtracted maps, so that no catalogued cluster's wings enter
-  const randoms = (opts.randomCount ?? 300) > 0
-    ? randomErrors(prep, bankFor(cov, paintClusters(bank, table, prep.spectra, painted(targets, fits, stack.bands.length), -1)), table, targets, fits, opts)
-    : [];
+  const randoms = (opts.randomCount ?? 300) > 0 ? randomErrors(prep, maxIt > 0 ? rewhitenBank(bank, cleaned) : bank, table, targets, fits, opts) : [];
   const scratch = createFitScratch(bank);
   const results = targets.map((t, k) => {
     const cache = new Map<number, { yArcmin2: number; yErrArcmin2: number }>();
-    const nodeTable = sedNodeTable(bank, t.seds);
+    const nodeTable = nodeTableFor(bank, t);
     const refit = (th: number) => {
       let r = cache.get(th);
       if (r === undefined) {

@@ -13,6 +13,11 @@ export interface PaintedCluster {
   readonly py: number;
   readonly thetaRad: number;
   readonly bandAmplitudes: Float64Array;
+  /**
+   * Optional: the amplitudes as `amplitude × sed` with a shared SED array. Clusters sharing one
+   * SED object are summed into one spectrum and spread over the bands once (faster).
+   */
+  readonly shared?: { readonly sed: Float64Array; readonly amplitude: number };
 }
 
 /** Add `sign` × every cluster's template to copies of `spectra`; returns the new spectra. */
@@ -25,7 +30,11 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
   const bn = bank.beamNodes;
   const ex = new Float64Array(2 * nx);
   const ey = new Float64Array(2 * ny);
+  // clusters with a shared SED: accumulate y-model spectra per SED, spread over bands at the end
+  const groups = new Map<Float64Array, Float64Array>();
   for (const c of clusters) {
+    const acc = c.shared !== undefined ? (groups.get(c.shared.sed) ?? (groups.size < 8 ? new Float64Array(2 * modeCount) : null)) : null;
+    if (acc !== null && c.shared !== undefined) groups.set(c.shared.sed, acc);
     for (let k = 0; k <= nx >> 1; k++) {
       const a = (-2 * Math.PI * k * c.px) / nx;
       ex[2 * k] = Math.cos(a);
@@ -38,6 +47,23 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
       ey[2 * k + 1] = Math.sin(a);
     }
     const th2 = (sign * c.thetaRad * c.thetaRad) / bank.pixelSr;
+    if (acc !== null && c.shared !== undefined) {
+      const a = th2 * c.shared.amplitude;
+      for (let m = 0; m < modeCount; m++) {
+        const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * a;
+        if (g === 0) continue;
+        const kx = kxIndex[m] as number;
+        let ky = kyIndex[m] as number;
+        if (ky < 0) ky += ny;
+        const xr = ex[2 * kx] as number;
+        const xi = ex[2 * kx + 1] as number;
+        const yr = ey[2 * ky] as number;
+        const yi = ey[2 * ky + 1] as number;
+        acc[2 * m] += (xr * yr - xi * yi) * g;
+        acc[2 * m + 1] += (xr * yi + xi * yr) * g;
+      }
+      continue;
+    }
     for (let m = 0; m < modeCount; m++) {
       const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * th2;
       if (g === 0) continue;
@@ -57,6 +83,20 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
         const s = out[i] as Float64Array;
         s[2 * m] += b * pr;
         s[2 * m + 1] += b * pi;
+      }
+    }
+  }
+  for (const [sed, acc] of groups) {
+    for (let m = 0; m < modeCount; m++) {
+      const n0 = (index[m] as number) * nb;
+      const t = frac[m] as number;
+      const ar = acc[2 * m] as number;
+      const ai = acc[2 * m + 1] as number;
+      for (let i = 0; i < nb; i++) {
+        const b = ((bn[n0 + i] as number) * (1 - t) + (bn[n0 + nb + i] as number) * t) * (sed[i] as number);
+        const s = out[i] as Float64Array;
+        s[2 * m] += b * ar;
+        s[2 * m + 1] += b * ai;
       }
     }
   }

@@ -56,11 +56,13 @@ export interface MeasureOptions {
   readonly relativistic?: boolean;
   /** Sizes (arcmin) scanned when θ500 is unknown (default 15 log-spaced from 0.5 to 10). */
   readonly scanSizesArcmin?: readonly number[];
-  /** Cleaning iterations after the first pass (default 4) and stop tolerance in σ (default 0.02). */
+  /**
+   * Iterations after the first pass (default 4): each subtracts all clusters, re-estimates the
+   * covariance and updates every cluster jointly; stop when no y0 moves by more than `tolerance` σ
+   * (default 0.02).
+   */
   readonly maxIterations?: number;
   readonly tolerance?: number;
-  /** Jacobi iterations of the joint fit of all clusters (neighbour deblending; default 3, 0 = none). */
-  readonly jointIterations?: number;
   /** Random positions for the empirical error (default 300; 0 = none). */
   readonly randomCount?: number;
   /** Seed of the random positions (default 1). */

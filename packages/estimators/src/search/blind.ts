@@ -11,6 +11,7 @@ import { buildFilterBank, type FilterBank } from "../mmf/bank.js";
 import { createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
 import { filteredMap, prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileShape, type ProfileTable } from "../mmf/profile.js";
+import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares, type WhiteNoiseModel } from "../mmf/localNoise.js";
 import { deconvolveBeams, estimateBandCovariance, type CovarianceOptions } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
 import { paintClusters, type PaintedCluster } from "../photometry/model.js";
@@ -99,6 +100,7 @@ function searchPass(
   allowed: Uint8Array,
   tszSed: Float64Array,
   onSnrMap: SearchOptions["onSnrMap"],
+  noise: WhiteNoiseModel | null,
 ): { raws: Raw[]; sigmas: number[] } {
   const { nx, ny } = prep.stack;
   const npix = nx * ny;
@@ -111,8 +113,10 @@ function searchPass(
   sizes.forEach((th, k) => {
     const sigma = filteredMap(bank, prep.plan, table, th * RAD_PER_ARCMIN, filter, map, scratch);
     sigmas.push(sigma);
+    const shares = noise === null ? null : whiteNoiseShares(bank, table, th * RAD_PER_ARCMIN, tszSed, sigma, noise.meanVariance);
     for (let p = 0; p < npix; p++) {
-      const s = (map[p] as number) / sigma;
+      const local = shares === null || noise === null ? sigma : sigma * localSigmaFactor(shares, sigma, noise, p);
+      const s = (map[p] as number) / local;
       map[p] = s;
       if (s > (best[p] as number)) {
         best[p] = s;
@@ -149,6 +153,7 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
     estimateBandCovariance(deconvolveBeams(spectra, beams, prep.ells), prep.plan.layout, geometry, prep.ells, {
       windowMeanSquare: prep.windowMeanSquare,
       bandNames: stack.bands.map((b) => b.name),
+      beams,
       ...opts.covarianceOptions,
     });
   const bankFor = (cov: BandCovariance): FilterBank =>
@@ -160,6 +165,7 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
     allowed[p] = (prep.window[p] as number) >= 0.999 && prep.inpainted[p] === 0 ? 1 : 0;
     nAllowed += allowed[p] as number;
   }
+  const noise = stack.bands.some((b) => b.ivar !== null) ? whiteNoiseModel(stack.bands.map((b) => b.ivar), prep.window) : null;
   const maxIt = opts.maxIterations ?? 2;
   let cov = covFrom(prep.spectra);
   let bank = bankFor(cov);
@@ -169,12 +175,12 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   const nodeTable = (b: FilterBank) => sedNodeTable(b, [opts.tszSed]);
   for (let it = 0; it <= maxIt; it++) {
     const last = it === maxIt;
-    const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined);
+    const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined, noise);
     sigmas = pass.sigmas;
     const kept = deblendPeaks(pass.raws, (k) => Math.max(sizes[k.sizeIndex] as number, maxBeam) / pixArcmin);
     const scratch = createFitScratch(bank);
     const nt = nodeTable(bank);
-    cands = kept.map((r, k) => refine(bank, table, sizes, r, scratch, nt, k, opts.tszSed));
+    cands = kept.map((r, k) => refine(bank, table, sizes, r, scratch, nt, k, opts.tszSed, noise, nx));
     iterations = it;
     if (last) break;
     if (cands.length === 0 && it > 0) break;
@@ -208,11 +214,26 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
 }
 
 /** Fit every size at the sub-pixel peak; best size by S/N; size range with S/N within 1 of it. */
-function refine(bank: FilterBank, table: ProfileTable, sizes: readonly number[], r: Raw, scratch: ReturnType<typeof createFitScratch>, nt: Float64Array, k: number, sed: Float64Array): Candidate {
+function refine(
+  bank: FilterBank,
+  table: ProfileTable,
+  sizes: readonly number[],
+  r: Raw,
+  scratch: ReturnType<typeof createFitScratch>,
+  nt: Float64Array,
+  k: number,
+  sed: Float64Array,
+  noise: WhiteNoiseModel | null,
+  nx: number,
+): Candidate {
   const snr: number[] = [];
+  const errs: number[] = [];
   const fits = sizes.map((th) => {
     const f = fitAtPosition(bank, table, th * RAD_PER_ARCMIN, [sed], r.px, r.py, scratch, nt);
-    snr.push((f.amplitudes[0] as number) / Math.sqrt(f.covariance[0] as number));
+    let err = Math.sqrt(f.covariance[0] as number);
+    if (noise !== null) err *= localSigmaFactor(whiteNoiseShares(bank, table, th * RAD_PER_ARCMIN, sed, err, noise.meanVariance), err, noise, r.iy * nx + r.ix);
+    errs.push(err);
+    snr.push((f.amplitudes[0] as number) / err);
     return f;
   });
   let b = 0;
@@ -223,7 +244,7 @@ function refine(bank: FilterBank, table: ProfileTable, sizes: readonly number[],
   while (hi < sizes.length - 1 && (snr[hi + 1] as number) >= (snr[b] as number) - 1) hi++;
   const f = fits[b]!;
   const y0 = f.amplitudes[0] as number;
-  const y0Err = Math.sqrt(f.covariance[0] as number);
+  const y0Err = errs[b] as number;
   const th = sizes[b] as number;
   const area = th * th * table.integralUnitScale;
   // the refined fit at the sub-pixel peak is the raw S/N maximised over position and size

@@ -89,6 +89,17 @@ describe("tile-compressed images", () => {
     expect((err as Error).message).toMatch(/^broken\.fits, HDU 1/);
   });
 
+  it("refuses a missing or invalid RICE BLOCKSIZE before fitsjs-ng loops forever on it (found by the fuzz test)", async () => {
+    for (const card of ["ZVAL1   ={                  32", "ZVAL1   =                    0"]) {
+      const bytes = fixtureBytes("rice_float32_dither.fits");
+      const p = findCard(bytes, "ZVAL1", 2880);
+      bytes.set(Buffer.from(card.padEnd(80), "latin1"), p);
+      const err = await parseFitsImage(bytes, "rice.fits").catch((e: unknown) => e);
+      expect(isUmbraError(err, "BAD_FITS")).toBe(true);
+      expect((err as { place: { keyword?: string } }).place.keyword).toBe("ZVAL1");
+    }
+  });
+
   it("refuses ZBITPIX 32 (fitsjs-ng returns float32, which cannot hold every 32-bit integer)", async () => {
     const bytes = fixtureBytes("rice_int16.fits");
     const p = findCard(bytes, "ZBITPIX");

@@ -9,9 +9,10 @@ import { register as registerMeasure } from "./measure.js";
 import { register as registerSed } from "./sed.js";
 import { register as registerCluster } from "./cluster.js";
 import { register as registerYMap } from "./ymap.js";
+import { register as registerInspect } from "./inspect.js";
 import { register as registerSimulate } from "./simulate.js";
 
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap];
+export const COMMANDS: readonly RegisterCommand[] = [registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap, registerInspect];

@@ -25,6 +25,9 @@ import type { ByteSource } from "./source.js";
 /** NULL value fitsjs-ng assumes for quantised floats (Pence et al. 2010 default ZBLANK). */
 const QUANTISED_NULL = -2147483647;
 
+/** Largest image decompressed (2^28 pixels, 2 GiB as float64): a corrupt ZNAXISn must not exhaust memory. */
+const MAX_PIXELS = 2 ** 28;
+
 /** Byte width of one element of each binary-table TFORM type code (FITS 4.0 Table 18). */
 const TFORM_BYTES: Record<string, number> = { L: 1, B: 1, I: 2, J: 4, K: 8, A: 1, E: 4, D: 8, C: 8, M: 16, P: 8, Q: 16 };
 
@@ -53,6 +56,31 @@ function columns(layout: HduLayout, file: string): Column[] {
 
 function bad(message: string, file: string, hdu: number, keyword?: string): UmbraError {
   return new UmbraError("BAD_FITS", message, keyword === undefined ? { file, hdu } : { file, hdu, keyword });
+}
+
+/**
+ * Check the ZNAMEi/ZVALi algorithm parameters before fitsjs-ng sees them: it takes a missing ZVALi as
+ * 0, and a RICE_1 BLOCKSIZE of 0 sends its decoder into an endless loop (found by our fuzz test).
+ * RICE_1: BLOCKSIZE 16 or 32, BYTEPIX 1, 2, 4 or 8; HCOMPRESS_1: SCALE ≥ 0, SMOOTH 0 or 1
+ * (Pence et al. 2010 tiled-image convention, §4.1–4.3).
+ */
+function checkAlgorithmParameters(h: HduLayout["header"], cmp: string, file: string, hdu: number): void {
+  for (let i = 1; h.has(`ZNAME${i}`); i++) {
+    const name = String(h.get(`ZNAME${i}`)).trim().toUpperCase();
+    const value = h.get(`ZVAL${i}`);
+    if (typeof value !== "number" || !Number.isFinite(value)) throw bad(`ZVAL${i} (${name}) is missing or not a number`, file, hdu, `ZVAL${i}`);
+    const ok =
+      cmp === "RICE_1" && name === "BLOCKSIZE"
+        ? value === 16 || value === 32
+        : cmp === "RICE_1" && name === "BYTEPIX"
+          ? [1, 2, 4, 8].includes(value)
+          : cmp === "HCOMPRESS_1" && name === "SCALE"
+            ? value >= 0
+            : cmp === "HCOMPRESS_1" && name === "SMOOTH"
+              ? value === 0 || value === 1
+              : true;
+    if (!ok) throw bad(`${name} = ${value} is not a valid ${cmp} parameter`, file, hdu, `ZVAL${i}`);
+  }
 }
 
 /** A primary header with no data, one block long (FITS 4.0 §4.4.1.1). */
@@ -86,6 +114,7 @@ export async function decodeCompressedImage(
     znaxes.push(v);
   }
   const [nx, ny] = mapShape(znaxes, file, hdu, "ZNAXIS");
+  if (nx * ny > MAX_PIXELS) throw bad(`image of ${nx} × ${ny} pixels exceeds the ${MAX_PIXELS}-pixel limit for decompression`, file, hdu, "ZNAXIS1");
   if (zbitpix !== 8 && zbitpix !== 16 && zbitpix !== -32) {
     throw bad(
       `ZBITPIX = ${String(zbitpix)} is not supported for tile-compressed images (fitsjs-ng returns float32, exact only for 8/16-bit integers and float32)`,
@@ -107,6 +136,7 @@ export async function decodeCompressedImage(
     const t = h.get(`ZTILE${k}`) ?? 1;
     if (t !== 1) throw bad(`ZTILE${k} = ${String(t)}: only 2-D tiles are supported`, file, hdu, `ZTILE${k}`);
   }
+  checkAlgorithmParameters(h, cmp, file, hdu);
   const rows = layout.naxes[1] ?? 0;
   const rowBytes = layout.naxes[0] ?? 0;
   const tiles = Math.ceil(nx / tx) * Math.ceil(ny / ty);

@@ -97,6 +97,13 @@ export function parseHeaderAt(source: ByteSource, offset: number, file: string, 
       cards.push({ keyword: "CONTINUE", value: null, kind: "commentary", valueText: "", comment: text.slice(8).trimEnd(), text });
       continue;
     }
+    if (/[^\x20-\x7e]/.test(text)) {
+      throw new UmbraError("BAD_FITS", `header card ${cardNo} holds bytes that are not printable ASCII: missing END card, or a corrupt header`, {
+        file,
+        hdu,
+        keyword: "END",
+      });
+    }
     const card = parseCard(text);
     if (card === null) {
       throw new UmbraError("BAD_FITS", `malformed header card ${cardNo}: '${text.trimEnd()}'`, {

@@ -21,6 +21,8 @@ export interface ReadFitsOptions {
   allowAllNaN?: boolean;
   /** Read into this array (length ≥ nx·ny) instead of allocating one (uncompressed images only). */
   out?: Float64Array;
+  /** Parse the WCS (default true); false leaves `map.wcs` null, e.g. to inspect a file whose WCS is broken. */
+  wcs?: boolean;
 }
 
 /** One image read from a FITS file. */
@@ -130,7 +132,7 @@ async function readSelected(source: ByteSource, file: string, options: ReadFitsO
   }
   const bunitValue = h.get("BUNIT");
   const bunit = typeof bunitValue === "string" ? bunitValue.trim() : null;
-  const map: SkyMap = { data, nx, ny, wcs: wcsFromHeader(h, file) };
+  const map: SkyMap = { data, nx, ny, wcs: options.wcs === false ? null : wcsFromHeader(h, file) };
   if (bunit !== null && isMapUnit(bunit)) map.unit = bunit;
   return { map, header: h, hdu: { index: layout.index, extname: layout.extname, type: layout.type }, bitpix, bunit, file };
 }

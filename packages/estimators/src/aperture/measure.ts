@@ -47,7 +47,7 @@ export interface IlcMeasureOptions {
   readonly ymap?: YMapOptions;
   /** Deblending sweeps (default 3; 0 = none): see the module doc. */
   readonly deblendIterations?: number;
-  /** Rebuilds of the y map with the fitted clusters subtracted from the covariance maps (default 2; 0 = none). */
+  /** Rebuilds of the y map with the fitted clusters subtracted from the covariance maps (default 1; 0 = none). */
   readonly iterations?: number;
   /** A y map already built from this stack (skips building and iterating). */
   readonly product?: YMapProduct;
@@ -189,7 +189,7 @@ export function measureCatalogByIlc(stack: BandStack, rows: readonly CatalogueCl
   let pass = fitAll();
   // Rebuild the y map with the ILC covariance taken from the bands minus the fitted clusters (their
   // signal in the covariance would make the ILC cancel part of them), then fit again.
-  const iterations = options.product !== undefined ? 0 : (options.iterations ?? 2);
+  const iterations = options.product !== undefined ? 0 : (options.iterations ?? 1);
   for (let it = 0; it < iterations; it++) {
     const yTrue = new Float64Array(geom.nx * geom.ny);
     for (const r of pass) if (Number.isFinite(r.y0)) paintTemplate(yTrue, geom, modelFor(r.t.theta), r.y0, r.t.px, r.t.py, false);
@@ -209,7 +209,7 @@ export function measureCatalogByIlc(stack: BandStack, rows: readonly CatalogueCl
   const holes = onMap.map((t) => ({ xPix: t.px, yPix: t.py, radiusArcmin: (options.holeFactor ?? 1) * (Number.isFinite(t.theta) ? t.spec.radiusArcmin : 2 * eff) }));
   const noise = yMapNoisePower(product, { positions: holes, holeRadiusArcmin: 2 * eff, map: residual });
   const power = interpolatePower(noise);
-  const ellStep = 0.25 * ((noise.ellCenters[1] ?? 2 * (noise.ellCenters[0] ?? 100)) - (noise.ellCenters[0] ?? 0));
+  const ellStep = 0.5 * ((noise.ellCenters[1] ?? 2 * (noise.ellCenters[0] ?? 100)) - (noise.ellCenters[0] ?? 0));
   /** Amplitude and errors from the aperture of size θ500 = theta at (px, py) on `map`. */
   const measureAt = (map: Float64Array, px: number, py: number, theta: number) => {
     const spec = specFor(theta);

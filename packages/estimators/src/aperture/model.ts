@@ -39,10 +39,15 @@ export interface ApertureModel {
   profileSpectrum: Float64Array;
 }
 
-/** Local grid side for an aperture and a template of scale θ500 (arcmin) with a beam of FWHM eff (arcmin). */
+/**
+ * Local grid side for an aperture and a template of scale θ500 (arcmin) with a beam of FWHM eff
+ * (arcmin): it must hold the template (radius 5 θ500 + 3 FWHM) on both sides of the centre, and the
+ * template's periodic copy must stay out of the aperture (side ≥ R_out + 5 θ500 + 3 FWHM).
+ */
 function localSide(spec: ApertureSpec, thetaArcmin: number, effFwhmArcmin: number, geom: FlatGeometry): number {
   const pixArcmin = Math.min(geom.dxRad, geom.dyRad) / RAD_PER_ARCMIN;
-  return smoothAtLeast((2 * (spec.annulusOuterArcmin + 5 * thetaArcmin + 3 * effFwhmArcmin)) / pixArcmin);
+  const extent = 5 * thetaArcmin + 3 * effFwhmArcmin;
+  return smoothAtLeast((Math.max(2 * extent, spec.annulusOuterArcmin + extent) + 4 * pixArcmin) / pixArcmin);
 }
 
 /** Template response of one aperture and the template spectrum (see module doc). */

@@ -4,7 +4,7 @@
  */
 
 /** Flag names written into the `flags` column (joined by "|"). */
-export type ClusterFlag = "off_map" | "masked" | "edge" | "near_mask" | "fit_failed" | "no_size" | "scan_edge" | "no_temperature" | "mass_failed";
+export type ClusterFlag = "off_map" | "masked" | "edge" | "near_mask" | "fit_failed" | "no_size" | "scan_edge" | "no_temperature" | "mass_failed" | "point_source";
 
 /** Flags that make the measurement unusable (outputs NaN). */
 export const FATAL_FLAGS: readonly ClusterFlag[] = ["off_map", "masked", "edge", "fit_failed", "no_size"];

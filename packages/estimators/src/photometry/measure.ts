@@ -12,6 +12,7 @@ import { buildFilterBank, rewhitenBank, type FilterBank } from "../mmf/bank.js";
 import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
 import { prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileTable } from "../mmf/profile.js";
+import { detectPointSources, type PointSource } from "../sources/detect.js";
 import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares } from "../mmf/localNoise.js";
 import { deconvolveBeams, estimateBandCovariance } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
@@ -234,6 +235,22 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
     if (lastChange < tol) break;
   }
   if (maxIt > 0) cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits), -1);
+  // bright point sources (radio: positive in bands below 200 GHz) near a cluster: flag it
+  const sources: PointSource[] = [];
+  const psSnr = opts.pointSourceSnr ?? 5;
+  if (psSnr > 0) {
+    const pixArcmin = Math.sqrt(stack.geometry.dxRad * stack.geometry.dyRad) / RAD_PER_ARCMIN;
+    const cleanedNow = maxIt > 0 ? cleaned : prep.spectra;
+    stack.bands.forEach((b, i) => {
+      if (bandFrequencyGHz(b.spectral) >= 200) return;
+      const found = detectPointSources(prep.plan, prep.ells, cleanedNow[i] as Float64Array, b.beam(prep.ells), cov, i, stack.geometry.dxRad * stack.geometry.dyRad, psSnr, null);
+      sources.push(...found);
+      targets.forEach((t) => {
+        const r = Math.max(t.thetaArcmin ?? 2, b.beamFwhmArcmin) / pixArcmin;
+        if (found.some((s) => (s.px - t.px) ** 2 + (s.py - t.py) ** 2 <= r * r) && !t.flags.includes("point_source")) t.flags.push("point_source");
+      });
+    });
+  }
   // inhomogeneous depth: scale each cluster's covariance by the local white-noise level (ivar maps)
   if (stack.bands.some((b) => b.ivar !== null)) {
     const model = whiteNoiseModel(stack.bands.map((b) => b.ivar), prep.window);
@@ -274,6 +291,7 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
       loadedBins: cov.loading.filter((x) => x > 0).length,
       randomScatter: randoms.map((r) => ({ thetaArcmin: r.thetaRad / RAD_PER_ARCMIN, sigmaAnalytic: r.sigmaAnalytic, sigmaRandom: r.sigmaRandom, count: r.count })),
       covarianceSource: opts.noiseCovariance === undefined ? "data" : "simulations",
+      pointSources: sources.length,
     },
   };
 }
@@ -377,4 +395,18 @@ function toMeasurement(
     y0, y0Err, yArcmin2, yErrArcmin2, snr: y0 / y0Err, y0ErrRandom: ratio * y0Err,
     vLosKms, vLosErrKms, yMpc2, yErrMpc2, m500Msun, m500ErrMsun, flags, scan: f.scan,
   };
+}
+
+/** Nominal frequency of a band: its delta frequency, or the bandpass reference / mean frequency. */
+function bandFrequencyGHz(b: BandStack["bands"][number]["spectral"]): number {
+  if ("frequencyGHz" in b) return b.frequencyGHz;
+  const bp = b.bandpass;
+  if (bp.refFrequencyGHz !== undefined) return bp.refFrequencyGHz;
+  let s = 0;
+  let w = 0;
+  for (let k = 0; k < bp.frequencyGHz.length; k++) {
+    s += (bp.frequencyGHz[k] as number) * (bp.weight[k] as number);
+    w += bp.weight[k] as number;
+  }
+  return w > 0 ? s / w : NaN;
 }

@@ -63,6 +63,8 @@ export interface MeasureOptions {
    */
   readonly maxIterations?: number;
   readonly tolerance?: number;
+  /** S/N above which a point source (positive, in bands below 200 GHz) flags clusters within θ500 or a beam (default 5; 0 = off). */
+  readonly pointSourceSnr?: number;
   /** Random positions for the empirical error (default 300; 0 = none). */
   readonly randomCount?: number;
   /** Seed of the random positions (default 1). */
@@ -131,6 +133,8 @@ export interface MeasureDiagnostics {
   /** Random-position check per size (empty when disabled). */
   readonly randomScatter: readonly { thetaArcmin: number; sigmaAnalytic: number; sigmaRandom: number; count: number }[];
   readonly covarianceSource: "data" | "simulations";
+  /** Point sources detected (all bands below 200 GHz, counted per band). */
+  readonly pointSources: number;
 }
 
 /** Result of forced photometry. */

@@ -23,7 +23,7 @@
  * The y map has one tSZ SED: a catalogue electron temperature is not used on this path
  * (teKeVUsed = 0; the matched filter handles the relativistic response per cluster).
  */
-import { RAD_PER_ARCMIN, UmbraError, createRng } from "@umbra/core";
+import { RAD_PER_ARCMIN, UmbraError, createRng, isUmbraError } from "@umbra/core";
 import { convolveMap, worldToPixel } from "@umbra/maps";
 import { tabulateProfile, type ProfileShape } from "../mmf/profile.js";
 import type { ClusterFlag } from "../photometry/flags.js";
@@ -258,12 +258,17 @@ export function measureCatalogByIlc(stack: BandStack, rows: readonly CatalogueCl
       // other sizes: the aperture on the map with every other cluster's fit subtracted
       const own = Float64Array.from(residual);
       paintTemplate(own, geom, modelFor(t.theta), r.y0, t.px, t.py);
-      const mass = options.physics.massFromY((theta) => {
-        const a = measureAt(own, t.px, t.py, theta);
-        return { yArcmin2: a.yArcmin2, yErrArcmin2: a.yErrArcmin2 };
-      }, z);
-      m500 = mass.m500Msun;
-      m500Err = mass.m500ErrMsun;
+      try {
+        const mass = options.physics.massFromY((theta) => {
+          const a = measureAt(own, t.px, t.py, theta);
+          return { yArcmin2: a.yArcmin2, yErrArcmin2: a.yErrArcmin2 };
+        }, z);
+        m500 = mass.m500Msun;
+        m500Err = mass.m500ErrMsun;
+      } catch (e) {
+        // a size the relation tries may leave the map or give Y ≤ 0: no mass for this cluster, the batch goes on
+        if (!isUmbraError(e)) throw e;
+      }
     }
     out.push({
       ...emptyMeasurement(t.c, t.px, t.py, t.theta, t.source, r.flags),

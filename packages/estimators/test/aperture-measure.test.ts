@@ -1,11 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { createRng, fwhmToSigma, RAD_PER_ARCMIN } from "@umbra/core";
+import { createRng, fwhmToSigma, RAD_PER_ARCMIN, UmbraError } from "@umbra/core";
 import { convolveMap, ellOfModes, gaussianRealisation, getRfft2Plan, pixelToWorld, type FlatGeometry, type Wcs } from "@umbra/maps";
 import { componentResponse } from "@umbra/spectra";
 import { measureCatalogByIlc } from "../src/aperture/index.js";
 import { gaussianShape } from "../src/mmf/profile.js";
 import type { BandStack } from "../src/stack/types.js";
-import type { CatalogueCluster } from "../src/photometry/types.js";
+import type { CatalogueCluster, ClusterMeasurement } from "../src/photometry/types.js";
 
 // Invented 4-band survey (simulation only): 0.5′ pixels, 256², TAN projection at (150°, 2°).
 const N = 256;
@@ -115,6 +115,28 @@ describe("measureCatalogByIlc (aperture photometry on the ILC y map)", () => {
     expect(res.clusters.slice(0, 3).every((c) => Number.isNaN(c.yArcmin2) && Number.isNaN(c.snr))).toBe(true);
     expect(Number.isFinite(res.clusters[3]?.yArcmin2)).toBe(true);
     expect(Number.isNaN(res.clusters[3]?.y0ErrRandom)).toBe(true);
+  });
+
+  it("converts Y to Mpc² with D_A and survives a mass relation that fails for one cluster", () => {
+    const physics = {
+      angularDiameterDistanceMpc: () => 1000,
+      massFromY: (yAt: (theta500Arcmin: number) => { yArcmin2: number; yErrArcmin2: number }, z: number) => {
+        if (z > 0.5) throw new UmbraError("BAD_VALUE", "invented failure for the test");
+        const a = yAt(2);
+        return { m500Msun: 1e17 * a.yArcmin2, m500ErrMsun: 1e17 * a.yErrArcmin2 };
+      },
+    };
+    const rows = [
+      { ...(sim.rows[7] as CatalogueCluster), z: 0.3 },
+      { ...(sim.rows[8] as CatalogueCluster), z: 0.7 },
+    ];
+    const res = measureCatalogByIlc(sim.stack, rows, { profile, physics, randomCount: 0 });
+    const [a, b] = res.clusters as [ClusterMeasurement, ClusterMeasurement];
+    // Mpc² per arcmin² at D_A = 1000 Mpc: (1000 · π/10800)² (small-angle definition)
+    expect(a.yMpc2).toAllClose(a.yArcmin2 * (1000 * RAD_PER_ARCMIN) ** 2, { rtol: 1e-12 });
+    expect(Number.isFinite(a.m500Msun) && a.m500Msun > 0).toBe(true);
+    expect(Number.isNaN(b.m500Msun) && Number.isFinite(b.yArcmin2)).toBe(true);
+    expect(b.flags).toEqual([]);
   });
 
   it("converts a noiseless beam-convolved cluster exactly: the local-grid response matches the full-map aperture", () => {

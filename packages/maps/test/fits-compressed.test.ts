@@ -100,6 +100,15 @@ describe("tile-compressed images", () => {
     }
   });
 
+  it("refuses a table whose TFORMn widths disagree with NAXIS1 (found by the fuzz test: it read past the row)", async () => {
+    const bytes = fixtureBytes("gzip_float32.fits");
+    const p = findCard(bytes, "NAXIS1", 2880);
+    bytes.set(Buffer.from("NAXIS1  =                    3".padEnd(80), "latin1"), p);
+    const err = await parseFitsImage(bytes, "w.fits").catch((e: unknown) => e);
+    expect(isUmbraError(err, "BAD_FITS")).toBe(true);
+    expect((err as { place: { keyword?: string } }).place.keyword).toBe("NAXIS1");
+  });
+
   it("refuses ZBITPIX 32 (fitsjs-ng returns float32, which cannot hold every 32-bit integer)", async () => {
     const bytes = fixtureBytes("rice_int16.fits");
     const p = findCard(bytes, "ZBITPIX");

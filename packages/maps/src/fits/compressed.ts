@@ -34,6 +34,8 @@ const TFORM_BYTES: Record<string, number> = { L: 1, B: 1, I: 2, J: 4, K: 8, A: 1
 interface Column {
   name: string;
   offset: number;
+  /** Byte just after the field. */
+  end: number;
   code: string;
 }
 
@@ -48,8 +50,9 @@ function columns(layout: HduLayout, file: string): Column[] {
     if (m === null) throw new UmbraError("BAD_FITS", `cannot read TFORM${k} = '${form}'`, { file, hdu: layout.index, keyword: `TFORM${k}` });
     const repeat = m[1] === "" ? 1 : Number(m[1]);
     const code = m[2] as string;
-    out.push({ name: String(h.get(`TTYPE${k}`) ?? "").trim().toUpperCase(), offset, code });
+    const start = offset;
     offset += code === "X" ? Math.ceil(repeat / 8) : repeat * (TFORM_BYTES[code] as number);
+    out.push({ name: String(h.get(`TTYPE${k}`) ?? "").trim().toUpperCase(), offset: start, end: offset, code });
   }
   return out;
 }
@@ -143,6 +146,8 @@ export async function decodeCompressedImage(
   if (rows !== tiles) throw bad(`table has ${rows} tile rows but ZNAXISn/ZTILEn need ${tiles}`, file, hdu, "NAXIS2");
 
   const cols = columns(layout, file);
+  const width = cols.reduce((w, c) => Math.max(w, c.end), 0);
+  if (width !== rowBytes) throw bad(`columns from TFORMn span ${width} bytes but NAXIS1 = ${rowBytes} (FITS 4.0 §7.3.1)`, file, hdu, "NAXIS1");
   if (cols.some((c) => c.name === "ZBLANK")) throw bad("a ZBLANK column is not supported (fitsjs-ng ignores it)", file, hdu, "TTYPE");
   if (!cols.some((c) => c.name === "COMPRESSED_DATA")) throw bad("no COMPRESSED_DATA column", file, hdu, "TTYPE");
   const gz = cols.find((c) => c.name === "GZIP_COMPRESSED_DATA");

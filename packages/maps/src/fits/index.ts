@@ -10,7 +10,6 @@ export { selectHdu, mapShape } from "./select.js";
 export type { HduSelector } from "./select.js";
 export { memorySource, fileSource } from "./source.js";
 export type { ByteSource } from "./source.js";
-export { decodeCompressedImage } from "./compressed.js";
 export { readFitsImage, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
 export type { ReadFitsOptions, FitsImage } from "./read.js";
 export { formatCard, formatValueCard, formatCommentary, formatReal } from "./format.js";

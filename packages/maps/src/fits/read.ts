@@ -5,7 +5,6 @@
 import { gunzipSync } from "node:zlib";
 import { isMapUnit, UmbraError } from "@umbra/core";
 import type { SkyMap } from "../types.js";
-import { decodeCompressedImage } from "./compressed.js";
 import type { FitsHeader } from "./header.js";
 import { scanHdus, type HduLayout, type HduType } from "./layout.js";
 import { decodePixels } from "./pixels.js";
@@ -108,6 +107,8 @@ async function readSelected(source: ByteSource, file: string, options: ReadFitsO
   let ny: number;
   let bitpix = layout.bitpix;
   if (layout.type === "COMPRESSED_IMAGE") {
+    // fitsjs-ng is loaded only when a compressed image is met (its import takes ~110 ms)
+    const { decodeCompressedImage } = await import("./compressed.js");
     const c = await decodeCompressedImage(source, layout, file);
     ({ data, nx, ny } = c);
     bitpix = c.zbitpix;

@@ -12,6 +12,7 @@ const PLAIN = [
   "f32_nan.fits",
   "f32_nan.fits.gz",
   "i8_scaled_blank.fits",
+  "i8_signed.fits",
   "i16_scaled_blank.fits",
   "u16.fits",
   "i32_scaled_blank.fits",

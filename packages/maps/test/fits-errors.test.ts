@@ -99,6 +99,12 @@ describe("typed errors for bad FITS files", () => {
     expect(e.place.keyword).toBe("NAXIS3");
   });
 
+  it("a folder given as a file is BAD_FITS", async () => {
+    const e = await failure(readFitsImage(FIXTURES));
+    expect(e.code).toBe("BAD_FITS");
+    expect(e.message).toMatch(/not a regular file/);
+  });
+
   it("a missing file is NOT_FOUND, a corrupt gzip stream BAD_FITS", async () => {
     const e = await failure(readFitsImage(`${FIXTURES}no-such-file.fits`));
     expect(e.code).toBe("NOT_FOUND");

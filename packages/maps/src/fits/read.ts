@@ -62,6 +62,7 @@ export function openFitsSource(path: string): ByteSource {
   try {
     src = fileSource(path);
   } catch (e) {
+    if (e instanceof UmbraError) throw e;
     const code = (e as NodeJS.ErrnoException).code;
     if (code === "ENOENT") throw new UmbraError("NOT_FOUND", "no such file", { file: path });
     throw new UmbraError("BAD_FITS", `cannot open: ${e instanceof Error ? e.message : String(e)}`, { file: path });

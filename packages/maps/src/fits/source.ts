@@ -4,6 +4,7 @@
  * large file touches only its header blocks and its own data.
  */
 import { closeSync, fstatSync, openSync, readSync } from "node:fs";
+import { UmbraError } from "@umbra/core";
 
 /** Bytes of one FITS file. */
 export interface ByteSource {
@@ -34,12 +35,18 @@ export function memorySource(bytes: Uint8Array): ByteSource {
   };
 }
 
-/** A source reading an open file on demand (synchronous reads; the caller closes it). */
+/**
+ * A source reading an open file on demand (synchronous reads; the caller closes it). Throws the
+ * system error for a file that cannot be opened; BAD_FITS for a path that is not a regular file or a
+ * read that fails.
+ */
 export function fileSource(path: string): ByteSource {
   const fd = openSync(path, "r");
   let length: number;
   try {
-    length = fstatSync(fd).size;
+    const st = fstatSync(fd);
+    if (!st.isFile()) throw new UmbraError("BAD_FITS", "not a regular file", { file: path });
+    length = st.size;
   } catch (e) {
     closeSync(fd);
     throw e;
@@ -48,10 +55,14 @@ export function fileSource(path: string): ByteSource {
   const readInto = (offset: number, target: Uint8Array): number => {
     let got = 0;
     const want = Math.max(0, Math.min(target.length, length - offset));
-    while (got < want) {
-      const k = readSync(fd, target, got, want - got, offset + got);
-      if (k <= 0) break;
-      got += k;
+    try {
+      while (got < want) {
+        const k = readSync(fd, target, got, want - got, offset + got);
+        if (k <= 0) break;
+        got += k;
+      }
+    } catch (e) {
+      throw new UmbraError("BAD_FITS", `read failed: ${e instanceof Error ? e.message : String(e)}`, { file: path });
     }
     return got;
   };

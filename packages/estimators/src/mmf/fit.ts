@@ -108,6 +108,8 @@ export function fitAtPosition(
   const { index, frac } = bank.grid;
   const ells = bank.ells;
   const ncc = nc * nc;
+  // one component: the Fisher weight aᵀQa per mode, interpolated once per node table
+  const qMode = nc === 1 ? perModeTable(bank, nodeTable) : null;
   for (let m = 0; m < modeCount; m++) {
     const g = profileAt(table, (ells[m] as number) * thetaRad) * theta2;
     if (g === 0) continue;
@@ -125,9 +127,13 @@ export function fitAtPosition(
       const e = W[j] as Float64Array;
       T[j] += w * ((e[2 * m] as number) * pr - (e[2 * m + 1] as number) * pi);
     }
+    const wg = w * g;
+    if (qMode !== null) {
+      F[0] += wg * (qMode[m] as number);
+      continue;
+    }
     const n0 = (index[m] as number) * ncc;
     const t = frac[m] as number;
-    const wg = w * g;
     for (let q = 0; q < ncc; q++) F[q] += wg * ((nodeTable[n0 + q] as number) * (1 - t) + (nodeTable[n0 + ncc + q] as number) * t);
   }
   const norm = 1 / (bank.nPix * bank.pixelSr);
@@ -176,4 +182,22 @@ export function combineSeds(bank: FilterBank, seds: readonly Float64Array[]): Fl
     }
     return out;
   });
+}
+
+const perMode = new WeakMap<Float64Array, Float64Array>();
+
+/** A one-component node table interpolated to every mode (cached per table). */
+function perModeTable(bank: FilterBank, nodeTable: Float64Array): Float64Array {
+  let q = perMode.get(nodeTable);
+  if (q === undefined) {
+    q = new Float64Array(bank.layout.modeCount);
+    const { index, frac } = bank.grid;
+    for (let m = 0; m < q.length; m++) {
+      const n = index[m] as number;
+      const t = frac[m] as number;
+      q[m] = (nodeTable[n] as number) * (1 - t) + (nodeTable[n + 1] as number) * t;
+    }
+    perMode.set(nodeTable, q);
+  }
+  return q;
 }

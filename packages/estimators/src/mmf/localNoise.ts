@@ -65,17 +65,18 @@ export function whiteNoiseShares(bank: FilterBank, table: ProfileTable, thetaRad
       u[n * nb + i] = b > 1e-8 ? (qa * qa) / (b * b) : 0;
     }
   }
+  // Σ over modes of a smooth function of ℓ, done on the node grid with each node's share of the
+  // modes (the modes' linear-interpolation weights): exact for functions linear between nodes
   const acc = new Float64Array(nb);
   const th2 = thetaRad * thetaRad;
-  const { hermitianWeight, modeCount } = bank.layout;
-  const { index, frac } = bank.grid;
-  for (let m = 0; m < modeCount; m++) {
-    const g = profileAt(table, (bank.ells[m] as number) * thetaRad) * th2;
+  const share = nodeModeWeights(bank);
+  for (let n = 0; n < nN; n++) {
+    const wn = share[n] as number;
+    if (wn === 0) continue;
+    const g = profileAt(table, (bank.grid.nodeElls[n] as number) * thetaRad) * th2;
     if (g === 0) continue;
-    const w = (hermitianWeight[m] as number) * g * g;
-    const n0 = (index[m] as number) * nb;
-    const t = frac[m] as number;
-    for (let i = 0; i < nb; i++) acc[i] += w * ((u[n0 + i] as number) * (1 - t) + (u[n0 + nb + i] as number) * t);
+    const w = wn * g * g;
+    for (let i = 0; i < nb; i++) acc[i] += w * (u[n * nb + i] as number);
   }
   const s4 = sigma ** 4 / (bank.nPix * bank.pixelSr * bank.pixelSr);
   return acc.map((a, i) => a * s4 * (meanVariance[i] as number));
@@ -86,4 +87,23 @@ export function localSigmaFactor(shares: Float64Array, sigma: number, model: Whi
   let d = 0;
   for (let i = 0; i < shares.length; i++) d += (shares[i] as number) * (((model.varianceRatio[i] as Float64Array)[p] as number) - 1);
   return Math.sqrt(Math.max(1 + d / (sigma * sigma), 0.0025));
+}
+
+const shares = new WeakMap<object, Float64Array>();
+
+/** Each node's Hermitian-weighted share of the Fourier modes (linear-interpolation weights). */
+function nodeModeWeights(bank: FilterBank): Float64Array {
+  let w = shares.get(bank.grid);
+  if (w !== undefined) return w;
+  w = new Float64Array(bank.grid.nNodes);
+  const { index, frac } = bank.grid;
+  const hw = bank.layout.hermitianWeight;
+  for (let m = 0; m < bank.layout.modeCount; m++) {
+    const n = index[m] as number;
+    const t = frac[m] as number;
+    w[n] += (hw[m] as number) * (1 - t);
+    w[n + 1] += (hw[m] as number) * t;
+  }
+  shares.set(bank.grid, w);
+  return w;
 }

@@ -96,9 +96,16 @@ function isFatal(flags: readonly ClusterFlag[]): boolean {
   return flags.some((f) => FATAL_FLAGS.includes(f));
 }
 
-function fitTarget(bank: FilterBank, table: ProfileTable, t: Target, scanSizes: readonly number[], scratch: ReturnType<typeof createFitScratch>): TargetFit {
+function fitTarget(
+  bank: FilterBank,
+  table: ProfileTable,
+  t: Target,
+  scanSizes: readonly number[],
+  scratch: ReturnType<typeof createFitScratch>,
+  combined: readonly Float64Array[],
+): TargetFit {
   const nodeTable = nodeTableFor(bank, t);
-  const at = (thetaArcmin: number) => fitAtPosition(bank, table, thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratch, nodeTable);
+  const at = (thetaArcmin: number) => fitAtPosition(bank, table, thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratch, nodeTable, combined);
   if (t.thetaArcmin !== null) {
     const f = at(t.thetaArcmin);
     return { thetaArcmin: t.thetaArcmin, amplitudes: f.amplitudes, covariance: f.covariance, scan: null };
@@ -132,10 +139,16 @@ function fitForCleaning(t: Target): boolean {
 
 function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[], scanSizes: readonly number[]): (TargetFit | null)[] {
   const scratch = createFitScratch(bank);
+  const cache = new Map<string, Float64Array[]>();
   return targets.map((t) => {
     if (!fitForCleaning(t)) return null;
+    let comb = cache.get(t.sedKey);
+    if (comb === undefined) {
+      comb = combineSeds(bank, t.seds);
+      cache.set(t.sedKey, comb);
+    }
     try {
-      return fitTarget(bank, table, t, scanSizes, scratch);
+      return fitTarget(bank, table, t, scanSizes, scratch, comb);
     } catch (e) {
       if (e instanceof UmbraError && e.code === "BAD_DATA") return null;
       throw e;

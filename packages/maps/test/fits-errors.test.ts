@@ -53,6 +53,20 @@ describe("typed errors for bad FITS files", () => {
     expect(e.place).toMatchObject({ hdu: 0, keyword: "NAXIS" });
   });
 
+  it("NAXISn describing less data than the file holds: non-zero fill after the data (FITS 4.0 §3.3.2)", async () => {
+    const e = await failure(parseFitsImage(withCard(fixtureBytes("f64_nan.fits"), "NAXIS2", "NAXIS2  =                    4"), "small.fits"));
+    expect(e.code).toBe("BAD_FITS");
+    expect(e.place).toMatchObject({ hdu: 0, keyword: "NAXIS" });
+    expect(e.message).toMatch(/data size disagrees with NAXISn/);
+  });
+
+  it("NAXISn undercounting by whole blocks leaves bytes after the last HDU that are neither an extension nor fill", async () => {
+    const big = encodeFits([{ data: new Float64Array(2000).fill(1), nx: 100, ny: 20 }]);
+    const e = await failure(parseFitsImage(withCard(big, "NAXIS2", "NAXIS2  =                    2"), "under.fits"));
+    expect(e.code).toBe("BAD_FITS");
+    expect(e.message).toMatch(/after the last HDU/);
+  });
+
   it("an unknown BITPIX (FITS 4.0 Table 8 allows 8, 16, 32, 64, −32, −64)", async () => {
     const e = await failure(parseFitsImage(withCard(fixtureBytes("f64_nan.fits"), "BITPIX", "BITPIX  =                   24"), "b24.fits"));
     expect(e.code).toBe("BAD_FITS");

@@ -124,5 +124,27 @@ export function scanHdus(source: ByteSource, file: string): HduLayout[] {
     hdus.push({ ...d, headerOffset: parsed.headerOffset, dataOffset: parsed.dataOffset });
     offset = parsed.dataOffset + Math.ceil(d.dataBytes / BLOCK_BYTES) * BLOCK_BYTES;
   }
+  checkTrailing(source, offset, file, hdus.length - 1);
   return hdus;
+}
+
+/**
+ * Bytes after the last HDU that are not an extension must be fill (zeros or blanks); anything else
+ * means the last HDU's NAXISn undercounts its data (or the file is corrupt). FITS 4.0 §3.5 allows
+ * "special records" there, which are so rare that we report rather than guess.
+ */
+function checkTrailing(source: ByteSource, offset: number, file: string, lastHdu: number): void {
+  for (let p = offset; p < source.length; p += 1 << 20) {
+    const chunk = source.read(p, 1 << 20);
+    for (let i = 0; i < chunk.length; i++) {
+      const b = chunk[i] as number;
+      if (b !== 0 && b !== 32) {
+        throw new UmbraError(
+          "BAD_FITS",
+          `${source.length - offset} bytes after the last HDU are neither an extension nor fill: data size disagrees with NAXISn?`,
+          { file, hdu: lastHdu, keyword: "NAXIS" },
+        );
+      }
+    }
+  }
 }

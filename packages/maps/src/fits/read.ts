@@ -5,7 +5,7 @@
 import { gunzipSync } from "node:zlib";
 import { isMapUnit, UmbraError } from "@umbra/core";
 import type { SkyMap } from "../types.js";
-import type { FitsHeader } from "./header.js";
+import { BLOCK_BYTES, type FitsHeader } from "./header.js";
 import { scanHdus, type HduLayout, type HduType } from "./layout.js";
 import { decodePixels } from "./pixels.js";
 import { mapShape, selectHdu, type HduSelector } from "./select.js";
@@ -99,6 +99,24 @@ function blankOf(layout: HduLayout, file: string): bigint | null {
   return BigInt(card.valueText.replace(/^\+/, ""));
 }
 
+/**
+ * The bytes between the end of an image's data and the end of its last block must be zero (FITS 4.0
+ * §3.3.2); non-zero fill means NAXISn describe less data than the file holds.
+ */
+function checkFill(source: ByteSource, layout: HduLayout, file: string): void {
+  const end = layout.dataOffset + layout.dataBytes;
+  const fill = source.read(end, (BLOCK_BYTES - (layout.dataBytes % BLOCK_BYTES)) % BLOCK_BYTES);
+  for (let i = 0; i < fill.length; i++) {
+    if (fill[i] !== 0) {
+      throw new UmbraError("BAD_FITS", "non-zero bytes follow the data in its last block: data size disagrees with NAXISn", {
+        file,
+        hdu: layout.index,
+        keyword: "NAXIS",
+      });
+    }
+  }
+}
+
 async function readSelected(source: ByteSource, file: string, options: ReadFitsOptions): Promise<FitsImage> {
   const hdus = scanHdus(source, file);
   const layout = selectHdu(hdus, options.hdu, file);
@@ -124,6 +142,7 @@ async function readSelected(source: ByteSource, file: string, options: ReadFitsO
       bzero: scalingNumber(h, "BZERO", 0, file, layout.index),
       blank: blankOf(layout, file),
     };
+    checkFill(source, layout, file);
     const out = options.out === undefined ? undefined : options.out.length === nx * ny ? options.out : options.out.subarray(0, nx * ny);
     data = decodePixels(source, layout.dataOffset, nx * ny, scaling, out);
   }

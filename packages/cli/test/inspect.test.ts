@@ -94,6 +94,12 @@ describe("umbra inspect", () => {
     expect(rice.stats!.nan_count).toBe(1);
   });
 
+  it("describes a gzip-compressed file as the plain one", async () => {
+    expect(await run(["inspect", "--json", `${FIXTURES}f32_nan.fits`, `${FIXTURES}f32_nan.fits.gz`])).toBe(0);
+    const j = JSON.parse(out) as Json;
+    expect(j.files[1]!.hdus).toEqual(j.files[0]!.hdus);
+  });
+
   it("prints a readable text summary by default", async () => {
     expect(await run(["inspect", `${FIXTURES}multi_ext.fits`])).toBe(0);
     expect(out).toContain("HDU 1  IMAGE 'YMAP'  7 × 5  BITPIX -32");

@@ -10,7 +10,7 @@
  */
 import type { Command } from "commander";
 import { isUmbraError, type UmbraError } from "@umbra/core";
-import { pixelToWorld, readFitsImage, readFitsLayout, wcsFromHeader, type HduLayout, type Wcs } from "@umbra/maps";
+import { openFitsSource, pixelToWorld, readFitsImageFromSource, scanHdus, wcsFromHeader, type ByteSource, type HduLayout, type Wcs } from "@umbra/maps";
 
 /** WCS summary of one image HDU. */
 export interface InspectWcs {
@@ -93,7 +93,7 @@ export function wcsSummary(wcs: Wcs, nx: number, ny: number): InspectWcs {
   };
 }
 
-async function describeHdu(file: string, h: HduLayout): Promise<InspectHdu> {
+async function describeHdu(source: ByteSource, file: string, h: HduLayout): Promise<InspectHdu> {
   const bunit = h.header.get("BUNIT");
   const isCompressed = h.type === "COMPRESSED_IMAGE";
   const zshape: number[] = [];
@@ -111,7 +111,7 @@ async function describeHdu(file: string, h: HduLayout): Promise<InspectHdu> {
   const isImage = h.type === "PRIMARY" || h.type === "IMAGE" || isCompressed;
   if (!isImage || entry.shape.length === 0) return entry;
   try {
-    const img = await readFitsImage(file, { hdu: h.index, allowAllNaN: true, wcs: false });
+    const img = await readFitsImageFromSource(source, file, { hdu: h.index, allowAllNaN: true, wcs: false });
     entry.stats = pixelStats(img.map.data);
     if (h.header.has("CTYPE1") || h.header.has("CTYPE2")) entry.wcs = wcsSummary(wcsFromHeader(h.header, file), img.map.nx, img.map.ny);
   } catch (e) {
@@ -152,10 +152,15 @@ function textFor(file: string, hdus: InspectHdu[]): string {
 /** Inspect one file: every HDU described, or the UmbraError that stopped it. */
 export async function inspectFile(file: string): Promise<{ file: string; hdus: InspectHdu[] } | { file: string; error: UmbraError }> {
   try {
-    const layout = readFitsLayout(file);
-    const hdus: InspectHdu[] = [];
-    for (const h of layout) hdus.push(await describeHdu(file, h));
-    return { file, hdus };
+    // one open file (or one gunzipped copy) serves every HDU
+    const source = openFitsSource(file);
+    try {
+      const hdus: InspectHdu[] = [];
+      for (const h of scanHdus(source, file)) hdus.push(await describeHdu(source, file, h));
+      return { file, hdus };
+    } finally {
+      source.close();
+    }
   } catch (e) {
     if (isUmbraError(e)) return { file, error: e };
     throw e;

@@ -10,7 +10,7 @@ export { selectHdu, mapShape } from "./select.js";
 export type { HduSelector } from "./select.js";
 export { memorySource, fileSource } from "./source.js";
 export type { ByteSource } from "./source.js";
-export { readFitsImage, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
+export { readFitsImage, readFitsImageFromSource, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
 export type { ReadFitsOptions, FitsImage } from "./read.js";
 export { formatCard, formatValueCard, formatCommentary, formatReal } from "./format.js";
 export type { CardInput, ValueCardInput, CommentaryCardInput } from "./format.js";

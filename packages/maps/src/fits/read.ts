@@ -117,6 +117,14 @@ function checkFill(source: ByteSource, layout: HduLayout, file: string): void {
   }
 }
 
+/**
+ * As {@link readFitsImage}, from an open {@link ByteSource} (see {@link openFitsSource}), so several
+ * HDUs of one file can be read without reopening or gunzipping it again; the caller closes it.
+ */
+export async function readFitsImageFromSource(source: ByteSource, file: string, options: ReadFitsOptions = {}): Promise<FitsImage> {
+  return readSelected(source, file, options);
+}
+
 async function readSelected(source: ByteSource, file: string, options: ReadFitsOptions): Promise<FitsImage> {
   const hdus = scanHdus(source, file);
   const layout = selectHdu(hdus, options.hdu, file);

@@ -79,10 +79,16 @@ describe("typed errors for bad FITS files", () => {
     expect(e.place.keyword).toBe("NAXIS2");
   });
 
-  it("a malformed card names its keyword", async () => {
-    const e = await failure(parseFitsImage(withCard(fixtureBytes("f64_nan.fits"), "CRVAL1", "CRVAL1  = 'unterminated"), "card.fits"));
-    expect(e.code).toBe("BAD_FITS");
-    expect(e.place.keyword).toBe("CRVAL1");
+  it("an unparsable value fails where it is used, naming its keyword; elsewhere the file stays readable", async () => {
+    const wcs = await failure(parseFitsImage(withCard(fixtureBytes("f64_nan.fits"), "CRVAL1", "CRVAL1  = 'unterminated"), "card.fits"));
+    expect(wcs.code).toBe("BAD_WCS");
+    expect(wcs.place.keyword).toBe("CRVAL1");
+    const scale = await failure(parseFitsImage(withCard(fixtureBytes("i16_scaled_blank.fits"), "BSCALE", "BSCALE  = 1.0.0"), "scale.fits"));
+    expect(scale.code).toBe("BAD_FITS");
+    expect(scale.place.keyword).toBe("BSCALE");
+    const ok = await parseFitsImage(withCard(fixtureBytes("f64_nan.fits"), "RADESYS", "RADESYS = ICRS without quotes"), "lenient.fits", { wcs: false });
+    expect(ok.header.card("RADESYS")!.kind).toBe("invalid");
+    expect(ok.map.data.length).toBe(35);
   });
 
   it("an image whose every pixel is NaN is BAD_DATA unless allowed", async () => {

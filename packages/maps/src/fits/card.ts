@@ -7,13 +7,17 @@
 export type FitsValue = string | number | boolean | null;
 
 /** What kind of value a card holds (FITS 4.0 §4.2). */
-export type FitsValueKind = "string" | "logical" | "integer" | "real" | "complex" | "undefined" | "commentary";
+export type FitsValueKind = "string" | "logical" | "integer" | "real" | "complex" | "undefined" | "commentary" | "invalid";
 
 /** One parsed header card. */
 export interface FitsCard {
   /** Keyword (columns 1–8, trailing blanks removed; the long name for HIERARCH cards). */
   keyword: string;
-  /** Parsed value; null for an undefined value, a complex value, and commentary cards. */
+  /**
+   * Parsed value; null for an undefined value, a complex value, and commentary cards. A value that
+   * cannot be parsed (kind "invalid") is its raw text, so a consumer expecting a number or logical
+   * still fails loudly on it while the rest of the header stays usable.
+   */
   value: FitsValue;
   kind: FitsValueKind;
   /** The value as written (e.g. an integer's digits, needed for exact 64-bit BLANK), or "" when none. */
@@ -87,10 +91,12 @@ export function isValidKeyword(keyword: string): boolean {
 
 /**
  * Parse one 80-character card. Value cards have "= " in columns 9–10 (FITS 4.0 §4.1.2.2); a HIERARCH
- * card (ESO convention) carries its long keyword before a "=". Cards without a value indicator are
- * commentary. Returns null (the caller reports) when the keyword or value is malformed.
+ * card (ESO convention) carries its long keyword before a "=". Cards without a value indicator, or
+ * with a keyword outside FITS 4.0 §4.1.2.1's characters, are commentary. A value that cannot be parsed
+ * gives kind "invalid" with the raw text as value (astropy likewise reads such files and complains
+ * only when the value is used).
  */
-export function parseCard(text: string): FitsCard | null {
+export function parseCard(text: string): FitsCard {
   const keyword = text.slice(0, 8).replace(/ +$/, "");
   if (keyword === "HIERARCH") {
     const eq = text.indexOf("=", 8);
@@ -103,10 +109,10 @@ export function parseCard(text: string): FitsCard | null {
     }
     return { keyword, value: null, kind: "commentary", valueText: "", comment: text.slice(8).trimEnd(), text };
   }
-  if (!isValidKeyword(keyword)) return null;
-  if (text.slice(8, 10) === "= " && keyword !== "COMMENT" && keyword !== "HISTORY" && keyword !== "") {
-    const parsed = parseValueField(text.slice(10));
-    if (parsed === null) return null;
+  if (isValidKeyword(keyword) && text.slice(8, 10) === "= " && keyword !== "COMMENT" && keyword !== "HISTORY" && keyword !== "") {
+    const field = text.slice(10);
+    const parsed = parseValueField(field);
+    if (parsed === null) return { keyword, value: field.trim(), kind: "invalid", valueText: field.trim(), comment: "", text };
     return { keyword, ...parsed, text };
   }
   return { keyword, value: null, kind: "commentary", valueText: "", comment: text.slice(8).trimEnd(), text };

@@ -107,6 +107,15 @@ describe("umbra measure / search / regress on a simulated field", () => {
     expect(r.err).toContain("nope.json");
   });
 
+  it("measures with --method ilc through the same columns", async () => {
+    const out = join(dir, "results-ilc.csv");
+    const r = await capture(["measure", "--bands", manifest, "--catalog", catalog, "--out", out, "--method", "ilc", "--randoms", "0"]);
+    expect(r.code).toBe(0);
+    const rows = parse(readFileSync(out, "utf8"), {});
+    expect(Object.keys(rows[0]!).slice(0, MEASURE_COLUMNS.length)).toEqual([...MEASURE_COLUMNS]);
+    expect(rows.filter((x) => Number.isFinite(Number(x.y0)) && x.y0 !== "nan").length).toBeGreaterThan(truth.length / 2);
+  }, 180_000);
+
   it("rejects an unknown --method with exit 2", async () => {
     const r = await capture(["measure", "--bands", manifest, "--catalog", catalog, "--out", join(dir, "x.csv"), "--method", "psf"]);
     expect(r.code).toBe(2);

@@ -17,6 +17,7 @@ import {
   bandSed,
   clusterPhysics,
   loadBandStack,
+  measureCatalogByIlc,
   measureClusters,
   stackSedProvider,
   type BandStack,
@@ -114,9 +115,6 @@ export function jsonSafe(_key: string, v: unknown): unknown {
 
 async function runMeasure(o: MeasureCliOptions): Promise<void> {
   if (o.method !== "mmf" && o.method !== "ilc") throw new UmbraError("BAD_OPTION", `--method ${o.method}: use mmf or ilc`, { field: "method", value: o.method });
-  if (o.method === "ilc") {
-    throw new UmbraError("BAD_OPTION", "--method ilc: ILC aperture photometry is not wired into measure in this build; use --method mmf", { field: "method" });
-  }
   const dustBeta = numberOption("dust-beta", o.dustBeta, (v) => v > -5 && v < 5, "must be a spectral index between -5 and 5");
   const dustTemp = numberOption("dust-temp", o.dustTemp, (v) => v > 0, "must be a positive temperature in K");
   const randomCount = numberOption("randoms", o.randoms, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0");
@@ -135,9 +133,15 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
     throw new UmbraError("BAD_OPTION", "--ksz with --deproject cmb: the kSZ has the CMB's spectrum, so it would be deprojected too", { field: "ksz" });
   }
   progress(`umbra measure: ${catalog.rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}`);
-  const result: MeasureResult = measureClusters(
+  const rows = catalog.rows.map((r, k) => ({ id: r.id, raDeg: r.raDeg, decDeg: r.decDeg, theta500Arcmin: r.theta500Arcmin, z: r.z, m500Msun: r.m500Msun, teKeV: r.teKeV, row: k + 1 }));
+  if (o.method === "ilc" && (deprojected.length > 0 || o.ksz === true)) {
+    throw new UmbraError("BAD_OPTION", "--method ilc takes no --deproject or --ksz here (use umbra ymap for constrained ILC maps, or --method mmf)", { field: "method" });
+  }
+  const result: { clusters: readonly ClusterMeasurement[]; diagnostics: MeasureResult["diagnostics"] | null } = o.method === "ilc"
+    ? { clusters: measureCatalogByIlc(stack, rows, { profile: a10ProfileShape(), physics, randomCount, seed }).clusters, diagnostics: null }
+    : measureClusters(
     stack,
-    catalog.rows.map((r, k) => ({ id: r.id, raDeg: r.raDeg, decDeg: r.decDeg, theta500Arcmin: r.theta500Arcmin, z: r.z, m500Msun: r.m500Msun, teKeV: r.teKeV, row: k + 1 })),
+    rows,
     {
       profile: a10ProfileShape(),
       seds: stackSedProvider(stack),
@@ -162,7 +166,7 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
         command: "measure",
         inputs,
         settings: {
-          method: o.method, profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", deproject: deprojected,
+          method: o.method === "ilc" ? "ilc (scale-dependent ILC y map + aperture photometry, @umbra/estimators aperture/)" : "mmf", profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", deproject: deprojected,
           dust: { beta: dustBeta, temperatureK: dustTemp, refFrequencyGHz: 353 }, ksz: o.ksz === true, relativistic: o.relativistic,
           randoms: randomCount, seed, scanSizesArcmin: scanSizes ?? "default (15 sizes, 0.5–10 arcmin)", apodisationArcmin: apodisation,
           cleaningIterations: iterations, cosmology: o.cosmology, relation: o.relation,

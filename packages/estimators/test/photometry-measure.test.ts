@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { pixelToWorld } from "@umbra/maps";
 import { measureClusters } from "../src/photometry/measure.js";
+import { covarianceFromNoiseSimulations } from "../src/photometry/noiseSims.js";
 import { gaussianShape } from "../src/mmf/profile.js";
 import type { CatalogueCluster, SedProvider } from "../src/photometry/types.js";
 import { BANDS3, makeField, tszNonRel, type FieldCluster } from "./photometry-helpers.js";
@@ -67,6 +68,20 @@ describe("forced photometry on an invented 3-band field", () => {
     expect(byId.get("MASK")!.flags).toContain("masked");
     for (const id of ["OFF", "EDGE", "MASK"]) expect(Number.isNaN(byId.get(id)!.y0)).toBe(true);
     expect(r.clusters.slice(0, 3).every((c) => Number.isFinite(c.y0) && c.flags.length === 0)).toBe(true);
+  });
+
+  it("uses a covariance from noise-only simulations when given one", () => {
+    const sims = [21, 22, 23].map((seed) => makeField(n, 0.5, BANDS3, [], seed));
+    const noiseCovariance = covarianceFromNoiseSimulations(sims);
+    const r = measureClusters(stack, cat, { profile: gaussianShape(1), seds, randomCount: 0, noiseCovariance });
+    expect(r.diagnostics.covarianceSource).toBe("simulations");
+    const pulls = r.clusters.map((c, k) => (c.y0 - truth[k]!.y0) / c.y0Err);
+    const mean = pulls.reduce((a, b) => a + b, 0) / pulls.length;
+    const sd = Math.sqrt(pulls.reduce((a, b) => a + (b - mean) ** 2, 0) / (pulls.length - 1));
+    expect(sd).toBeGreaterThan(0.6);
+    expect(sd).toBeLessThan(1.45);
+    // the errors agree with the data-estimated ones within 10 % (same noise model)
+    r.clusters.forEach((c, k) => expect(c.y0Err).toAllClose(res.clusters[k]!.y0Err, { rtol: 0.1 }));
   });
 
   it("scans sizes when theta500 is missing and picks a size near the true one for a bright cluster", () => {

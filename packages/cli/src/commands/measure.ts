@@ -16,12 +16,14 @@ import {
   a10ProfileShape,
   bandSed,
   clusterPhysics,
+  covarianceFromNoiseSimulations,
   loadBandStack,
   measureCatalogByIlc,
   measureClusters,
   stackSedProvider,
   type BandStack,
   type ClusterMeasurement,
+  type MeasureOptions,
   type MeasureResult,
 } from "@umbra/estimators";
 import { readClusterCatalog, writeCsvAtomic, writeTextAtomic, type CsvValue } from "@umbra/maps";
@@ -46,6 +48,7 @@ interface MeasureCliOptions {
   iterations: string;
   cosmology: string;
   relation: string;
+  noiseSims?: string;
 }
 
 /** The required leading CSV columns (the pipeline contract). */
@@ -129,6 +132,18 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   const catalog = await readClusterCatalog(o.catalog);
   for (const p of catalog.problems) process.stderr.write(`umbra: warning: ${o.catalog}, row ${p.row}, column '${p.column}': ${p.message} (row skipped)\n`);
   const { seds: deproject, names: deprojected } = deprojectSeds(stack, o.deproject, dustBeta, dustTemp);
+  let noiseCovariance: MeasureOptions["noiseCovariance"];
+  const simInputs: { path: string; sha256: string }[] = [];
+  const simPaths = (o.noiseSims ?? "").split(",").map((x) => x.trim()).filter((x) => x.length > 0);
+  if (simPaths.length > 0) {
+    const sims = [];
+    for (const p of simPaths) {
+      const sim = await loadBandStack(p);
+      simInputs.push(...sim.inputs);
+      sims.push(sim);
+    }
+    noiseCovariance = covarianceFromNoiseSimulations(sims, { apodisationArcmin: apodisation });
+  }
   if (o.ksz === true && deprojected.includes("cmb")) {
     throw new UmbraError("BAD_OPTION", "--ksz with --deproject cmb: the kSZ has the CMB's spectrum, so it would be deprojected too", { field: "ksz" });
   }
@@ -154,11 +169,12 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
       randomCount,
       seed,
       apodisationArcmin: apodisation,
+      ...(noiseCovariance === undefined ? {} : { noiseCovariance }),
     },
   );
   await writeCsvAtomic(o.out, [...MEASURE_COLUMNS, ...MEASURE_EXTRA_COLUMNS], result.clusters.map(row));
   if (o.json === true) {
-    const inputs = [...stack.inputs, { path: resolve(o.catalog), sha256: await fileSha256(o.catalog) }];
+    const inputs = [...stack.inputs, { path: resolve(o.catalog), sha256: await fileSha256(o.catalog) }, ...simInputs];
     const doc = {
       provenance: {
         tool: "umbra",
@@ -169,7 +185,7 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
           method: o.method === "ilc" ? "ilc (scale-dependent ILC y map + aperture photometry, @umbra/estimators aperture/)" : "mmf", profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", deproject: deprojected,
           dust: { beta: dustBeta, temperatureK: dustTemp, refFrequencyGHz: 353 }, ksz: o.ksz === true, relativistic: o.relativistic,
           randoms: randomCount, seed, scanSizesArcmin: scanSizes ?? "default (15 sizes, 0.5–10 arcmin)", apodisationArcmin: apodisation,
-          cleaningIterations: iterations, cosmology: o.cosmology, relation: o.relation,
+          cleaningIterations: iterations, cosmology: o.cosmology, relation: o.relation, noiseSimulations: simPaths,
         },
       },
       warnings: stack.warnings,
@@ -205,5 +221,6 @@ export function register(program: Command): void {
     .option("--iterations <n>", "cluster-cleaning iterations of the noise covariance", "4")
     .option("--cosmology <name>", "cosmology preset for theta500(M, z), D_A and masses", "cmb2018")
     .option("--relation <name>", "Y–M relation for M500: a10 or planck2014", "a10")
+    .option("--noise-sims <manifests>", "comma-separated band manifests of noise-only simulations: their mean covariance replaces the data estimate")
     .action(async (o: MeasureCliOptions) => runMeasure(o));
 }

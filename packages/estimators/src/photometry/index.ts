@@ -10,3 +10,4 @@ export { randomPositionScatter, randomAllowedMask, robustSigma } from "./randoms
 export type { RandomScatter } from "./randoms.js";
 export { clusterPhysics, YM_RELATIONS } from "./physics.js";
 export type { YmRelationName } from "./physics.js";
+export { covarianceFromNoiseSimulations } from "./noiseSims.js";

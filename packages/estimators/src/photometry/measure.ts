@@ -37,7 +37,10 @@ interface Target {
   readonly py: number;
   readonly thetaArcmin: number | null;
   readonly thetaSource: "catalog" | "mass" | "scan";
+  /** kTe of the tSZ SED (0 = non-relativistic). */
   readonly teKeV: number;
+  /** kTe known for the cluster (catalogue or M–T), 0 when unknown: converts kSZ to a velocity. */
+  readonly knownTeKeV: number;
   readonly flags: ClusterFlag[];
   readonly seds: Float64Array[];
   /** Key of the SED set (same key ⇒ same SED arrays). */
@@ -79,16 +82,17 @@ function resolveTargets(stack: BandStack, prep: PreparedStack, clusters: readonl
       thetaArcmin = opts.physics.theta500ArcminFromMass(c.m500Msun as number, c.z as number);
       thetaSource = "mass";
     }
-    let teKeV = 0;
-    if (relativistic) {
-      if (c.teKeV != null && (c.teKeV as number) > 0) teKeV = c.teKeV as number;
-      else if (hasMass && opts.physics?.temperatureKeVFromMass !== undefined) teKeV = opts.physics.temperatureKeVFromMass(c.m500Msun as number, c.z as number);
-    }
+    // the electron temperature: from the catalogue, else the M–T relation; it sets the
+    // relativistic tSZ SED (unless switched off) and converts a kSZ amplitude to a velocity
+    let knownTeKeV = 0;
+    if (c.teKeV != null && (c.teKeV as number) > 0) knownTeKeV = c.teKeV as number;
+    else if (hasMass && opts.physics?.temperatureKeVFromMass !== undefined) knownTeKeV = opts.physics.temperatureKeVFromMass(c.m500Msun as number, c.z as number);
+    const teKeV = relativistic ? knownTeKeV : 0;
     const radiusArcmin = Math.max(thetaArcmin ?? 2, maxBeam);
     flags.push(...positionFlags(pos.ix, pos.iy, radiusArcmin / pixArcmin, stack.nx, stack.ny, prep.window, prep.inpainted));
     const seds = [tsz(teKeV)];
     if (opts.fitKsz === true) seds.push(opts.seds.ksz());
-    return { c, px: pos.ix, py: pos.iy, thetaArcmin, thetaSource, teKeV, flags, seds, sedKey: `${teKeV}|${opts.fitKsz === true ? "ksz" : ""}` };
+    return { c, px: pos.ix, py: pos.iy, thetaArcmin, thetaSource, teKeV, knownTeKeV, flags, seds, sedKey: `${teKeV}|${opts.fitKsz === true ? "ksz" : ""}` };
   });
 }
 
@@ -368,10 +372,10 @@ function toMeasurement(
   let vLosKms = NaN;
   let vLosErrKms = NaN;
   if (opts.fitKsz === true) {
-    if (t.teKeV > 0) {
+    if (t.knownTeKeV > 0) {
       // a_k = τ_e0 v/c with τ_e0 = y0 m_e c²/kTe (isothermal: y = (kTe/m_e c²) τ); linearised errors
       const a = f.amplitudes[1] as number;
-      const dvda = (C_KMS * t.teKeV) / (ME_C2_KEV * y0);
+      const dvda = (C_KMS * t.knownTeKeV) / (ME_C2_KEV * y0);
       vLosKms = a * dvda;
       const dvdy = -vLosKms / y0;
       const nc = 2;

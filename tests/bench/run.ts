@@ -1,0 +1,198 @@
+/**
+ * `npm run bench`: every benchmark, each in its own child process (so peak-memory figures are the
+ * section's own), then `docs/benchmarks.md` rewritten with the machine described and one table per
+ * section. Run it on a quiet machine; figures from a loaded machine are not worth recording.
+ *
+ *   npm run bench                 all sections, full size
+ *   npm run bench -- --quick      small sizes (a smoke run; does not rewrite docs/benchmarks.md)
+ *   npm run bench -- fft fits     only the named sections (does not rewrite docs/benchmarks.md)
+ */
+import { spawnSync } from "node:child_process";
+import { cpus, totalmem, release } from "node:os";
+import { fileURLToPath, pathToFileURL } from "node:url";
+import { writeFileSync, renameSync } from "node:fs";
+
+type Row = Record<string, unknown>;
+
+/** One benchmark section: how to run it in a child process and what it measures. */
+interface Section {
+  name: string;
+  title: string;
+  what: string;
+  /** Runs inside the child; returns rows. */
+  run(quick: boolean): Promise<Row[]>;
+}
+
+const SECTIONS: Section[] = [
+  {
+    name: "fft",
+    title: "Real 2-D FFT round trip (forward + inverse) against numpy",
+    what: "Median seconds per rfft2 + irfft2 round trip on random float64 maps; numpy's times from `python3 tests/bench/fft_numpy.py` in the same run; ratio = umbra / numpy (≤ 2.0 is the float64 target, ≤ 0.8 the float32 one).",
+    async run(quick) {
+      const { benchFft } = await import("./fft.js");
+      const rows = (await benchFft({ quick })) as unknown as Row[];
+      const py = spawnSync("python3", [fileURLToPath(new URL("./fft_numpy.py", import.meta.url)), ...(quick ? ["--quick"] : [])], { encoding: "utf8" });
+      if (py.status !== 0) return rows.map((r) => ({ ...r, numpySeconds: "numpy unavailable" }));
+      const np = JSON.parse(py.stdout) as { numpy?: string; rows: { nx: number; ny: number; roundTripSeconds: number }[] };
+      return rows.map((r) => {
+        const ref = np.rows.find((q) => q.nx === r["nx"] && q.ny === r["ny"]);
+        const s = r["roundTripSeconds"] as number;
+        return { ...r, numpySeconds: ref?.roundTripSeconds ?? null, ratio: ref === undefined ? null : s / ref.roundTripSeconds, numpy: np.numpy ?? "" };
+      });
+    },
+  },
+  {
+    name: "fft-memory",
+    title: "Peak memory of six 4096² float64 bands transformed in turn",
+    what: "Process peak RSS (MB) with six 4096² maps held (768 MB) while each is transformed forward and back with one reused spectrum buffer; numpy's peak for the same from the numpy script.",
+    async run(quick) {
+      const { benchSixBandMemory } = await import("./fft.js");
+      return [{ ...benchSixBandMemory(quick ? 1024 : 4096) }];
+    },
+  },
+  {
+    name: "fits",
+    title: "Reading uncompressed float32 FITS images against astropy",
+    what: "Median milliseconds per read of a file in the page cache: umbra's reader (into a fresh or a reused Float64Array) and astropy (`fits.open(memmap=False).data`, raw big-endian float32, and the same followed by `.astype(float64)`, umbra's output type).",
+    async run(quick) {
+      const { benchFitsRead } = await import("./fits-read.js");
+      return (await benchFitsRead({ quick })) as unknown as Row[];
+    },
+  },
+  {
+    name: "spectra",
+    title: "Spectral responses",
+    what: "Exact relativistic tSZ (one frequency, kTe pair), the fast evaluator's throughput, and 6-band tSZ mixing vectors for 10⁴ clusters of different kTe.",
+    async run(quick) {
+      const { benchSpectra } = await import("./spectra.js");
+      return (await benchSpectra({ quick })) as unknown as Row[];
+    },
+  },
+  {
+    name: "clusters",
+    title: "Cluster models",
+    what: "Distances, profile projection, Fourier-template tables and Y→M inversions.",
+    async run(quick) {
+      const { benchClusters } = await import("./clusters.js");
+      return (await benchClusters({ quick })) as unknown as Row[];
+    },
+  },
+  {
+    name: "simulate",
+    title: "Simulating a multi-band field",
+    what: "Wall time and peak RSS of `simulateField` for a 6-band field with clusters, CMB, dust/CIB, radio sources and noise.",
+    async run(quick) {
+      const { benchSimulate } = await import("./simulate.js");
+      return (await benchSimulate({ quick })) as unknown as Row[];
+    },
+  },
+  {
+    name: "measure",
+    title: "Forced photometry against a plain numpy version of the same filter",
+    what: "One 6-band 2048² field with 1000 clusters: umbra's single-pass matched filter and `tests/bench/measure_numpy.py` doing the same pass, timed in the same run; umbra's full default pipeline (cleaning iterations, random positions) reported separately.",
+    async run(quick) {
+      const { benchMeasure } = await import("./measure.js");
+      const rows = benchMeasure(quick, true);
+      rows.push({ name: "process peak RSS", peakRssMB: Math.round(process.resourceUsage().maxRSS / 1024) });
+      return rows;
+    },
+  },
+  {
+    name: "search",
+    title: "Blind search",
+    what: "A 15-size blind search of a 6-band 2048² field: wall time and the process's peak RSS (aim below 3 GB).",
+    async run(quick) {
+      const { benchSearch } = await import("./search.js");
+      return [benchSearch(quick)];
+    },
+  },
+];
+
+function fmt(v: unknown): string {
+  if (typeof v === "number") {
+    if (!Number.isFinite(v)) return String(v);
+    if (Number.isInteger(v)) return String(v);
+    const a = Math.abs(v);
+    return a !== 0 && (a < 1e-3 || a >= 1e6) ? v.toExponential(3) : Number(v.toPrecision(4)).toString();
+  }
+  if (v === null || v === undefined) return "—";
+  if (typeof v === "object") return JSON.stringify(v);
+  return String(v).replace(/\|/g, "\\|");
+}
+
+function table(rows: Row[]): string {
+  const cols: string[] = [];
+  for (const r of rows) for (const k of Object.keys(r)) if (!cols.includes(k)) cols.push(k);
+  const head = `| ${cols.join(" | ")} |\n| ${cols.map(() => "---").join(" | ")} |`;
+  return `${head}\n${rows.map((r) => `| ${cols.map((c) => fmt(r[c])).join(" | ")} |`).join("\n")}`;
+}
+
+function machine(): string {
+  const c = cpus();
+  const np = spawnSync("python3", ["-c", "import numpy; print(numpy.__version__)"], { encoding: "utf8" });
+  const ap = spawnSync("/usr/bin/python3", ["-c", "import astropy; print(astropy.__version__)"], { encoding: "utf8" });
+  return [
+    `- CPU: ${c.length} × ${c[0]?.model ?? "unknown"}`,
+    `- memory: ${(totalmem() / 2 ** 30).toFixed(1)} GiB; Linux ${release()}`,
+    `- Node ${process.version}; numpy ${np.status === 0 ? np.stdout.trim() : "n/a"} (python3); astropy ${ap.status === 0 ? ap.stdout.trim() : "n/a"} (Debian)`,
+  ].join("\n");
+}
+
+async function child(name: string, quick: boolean): Promise<void> {
+  const s = SECTIONS.find((x) => x.name === name);
+  if (s === undefined) throw new Error(`unknown section ${name}`);
+  const rows = await s.run(quick);
+  process.stdout.write(`\n@@ROWS@@${JSON.stringify(rows)}\n`);
+}
+
+async function main(): Promise<void> {
+  const args = process.argv.slice(2);
+  const ci = args.indexOf("--child");
+  const quick = args.includes("--quick");
+  if (ci >= 0) return child(args[ci + 1] ?? "", quick);
+  const wanted = args.filter((a) => !a.startsWith("--"));
+  const chosen = wanted.length === 0 ? SECTIONS : SECTIONS.filter((s) => wanted.includes(s.name));
+  const self = fileURLToPath(import.meta.url);
+  const parts: string[] = [];
+  for (const s of chosen) {
+    process.stderr.write(`bench: ${s.name} …\n`);
+    const t0 = Date.now();
+    const r = spawnSync(process.execPath, ["--import", "tsx", self, "--child", s.name, ...(quick ? ["--quick"] : [])], {
+      encoding: "utf8",
+      maxBuffer: 64 * 2 ** 20,
+      env: { ...process.env },
+    });
+    const marker = r.stdout.lastIndexOf("@@ROWS@@");
+    let body: string;
+    if (r.status !== 0 || marker < 0) {
+      body = `**Failed** (exit ${String(r.status)}): \`${(r.stderr || r.stdout).trim().split("\n").slice(-3).join(" / ")}\``;
+    } else {
+      body = table(JSON.parse(r.stdout.slice(marker + 8).trim()) as Row[]);
+    }
+    process.stderr.write(`bench: ${s.name} done in ${((Date.now() - t0) / 1000).toFixed(1)} s\n`);
+    parts.push(`## ${s.title}\n\n${s.what}\n\n${body}\n`);
+  }
+  const doc = `# Benchmarks
+
+Written by \`npm run bench\` (tests/bench/run.ts) on ${new Date().toISOString().slice(0, 10)}; every figure below is from that one run.
+Each section ran in its own process, one after another, on:
+
+${machine()}
+
+Ratios are umbra ÷ reference in the same run (below 1 means umbra is faster). The machine is shared
+and noisy: treat single figures as ±20 %. Sections whose bench failed say so.
+
+${parts.join("\n")}`;
+  if (quick || wanted.length > 0) {
+    process.stdout.write(doc);
+    return;
+  }
+  const out = fileURLToPath(new URL("../../docs/benchmarks.md", import.meta.url));
+  writeFileSync(`${out}.tmp`, doc);
+  renameSync(`${out}.tmp`, out);
+  process.stderr.write(`bench: wrote docs/benchmarks.md\n`);
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  await main();
+}

@@ -45,6 +45,8 @@ const RESERVED = new Set(["SIMPLE", "XTENSION", "BITPIX", "NAXIS", "NAXIS1", "NA
  * PRVSHnnn (SHA-256). Our own short keywords (no HIERARCH), at most 999 inputs.
  */
 export function provenanceCards(p: Provenance): CardInput[] {
+  // FITS header strings are printable ASCII only (FITS 4.0 §4.2.1): settings JSON and file names
+  // keep any other character as a JSON \uXXXX escape, which JSON.parse reads back unchanged.
   if (p.inputs.length > 999) throw new UmbraError("BAD_VALUE", `provenance lists ${p.inputs.length} inputs; at most 999 fit the PRVINnnn keywords`, { field: "inputs" });
   const cards: CardInput[] = [
     { commentary: "COMMENT", text: "umbra provenance: tool, version, settings (JSON), inputs with SHA-256" },
@@ -52,13 +54,18 @@ export function provenanceCards(p: Provenance): CardInput[] {
     { keyword: "PROVVERS", value: p.version, comment: "its version" },
   ];
   if (p.createdUtc !== undefined) cards.push({ keyword: "PROVDATE", value: p.createdUtc, comment: "UTC creation time" });
-  cards.push({ keyword: "PROVSETS", value: stableJson(p.settings), comment: "settings (JSON)" });
+  cards.push({ keyword: "PROVSETS", value: asciiEscape(stableJson(p.settings)), comment: "settings (JSON)" });
   p.inputs.forEach((inp, i) => {
     const n = String(i + 1).padStart(3, "0");
-    cards.push({ keyword: `PRVIN${n}`, value: inp.file, comment: "input file" });
+    cards.push({ keyword: `PRVIN${n}`, value: asciiEscape(inp.file), comment: "input file" });
     cards.push({ keyword: `PRVSH${n}`, value: inp.sha256, comment: "SHA-256 of the input" });
   });
   return cards;
+}
+
+/** Replace every character outside printable ASCII by its JSON escape \\uXXXX (UTF-16 code units). */
+export function asciiEscape(text: string): string {
+  return text.replace(/[^\x20-\x7e]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
 }
 
 const REAL_WCS = /^(CRPIX|CRVAL|CD|CDELT|PC|PV|LONPOLE|LATPOLE|EQUINOX)/;

@@ -57,6 +57,10 @@ function makeScale(spec: AxisSpec, values: number[], range: [number, number]): S
   if (spec.log === true) {
     if (!(lo > 0)) lo = hi > 0 ? hi / 100 : 1e-3;
     if (!(hi > lo)) hi = lo * 10;
+    // pad 5 % of the span in log space so end points are not drawn on the frame
+    const padFactor = (hi / lo) ** 0.05;
+    if (spec.min === undefined) lo /= padFactor;
+    if (spec.max === undefined) hi *= padFactor;
     return logScale([lo, hi], range);
   }
   return linearScale([lo, hi], range);

@@ -10,3 +10,5 @@ export { svgToPng } from "./png.js";
 export { renderHtmlReport } from "./html.js";
 export type { ReportBlock } from "./html.js";
 export { escapeXml } from "./svg.js";
+export { stampGrid } from "./stamps.js";
+export type { Stamp, StampGridOptions } from "./stamps.js";

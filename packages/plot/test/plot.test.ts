@@ -86,3 +86,15 @@ describe("figures", () => {
     expect(html).toContain("<td>1.230e-5</td>");
   });
 });
+
+describe("stampGrid", () => {
+  it("lays out rows × columns with labels and renders", async () => {
+    const { stampGrid } = await import("../src/index.js");
+    const s = { data: new Float64Array(16).map((_, i) => i), nx: 4, ny: 4 };
+    const fig = stampGrid({ name: "st", caption: "Stamps.", stamps: [[s, null], [s, s]], rowLabels: ["C1", "C2"], columnLabels: ["f090 [µK]", "f150 [µK]"] });
+    expect(fig.svg.match(/<image /g)?.length).toBe(3);
+    expect(fig.svg).toContain(">C2<");
+    expect(fig.svg).toContain("f150 [µK]");
+    expect(() => svgToPng(fig.svg, 1)).not.toThrow();
+  });
+});

@@ -3,6 +3,7 @@
  * Add a line here when you add a command.
  */
 import type { Command } from "commander";
+import { register as registerDemo } from "./demo.js";
 import { register as registerRegress } from "./regress.js";
 import { register as registerSearch } from "./search.js";
 import { register as registerMeasure } from "./measure.js";
@@ -15,4 +16,4 @@ import { register as registerSimulate } from "./simulate.js";
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap, registerInspect];
+export const COMMANDS: readonly RegisterCommand[] = [registerDemo, registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap, registerInspect];

@@ -8,7 +8,7 @@
 import { RAD_PER_ARCMIN, UmbraError } from "@umbra/core";
 import { pixelToWorld } from "@umbra/maps";
 import { buildFilterBank, type FilterBank } from "../mmf/bank.js";
-import { createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
+import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
 import { filteredMap, prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileShape, type ProfileTable } from "../mmf/profile.js";
 import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares, type WhiteNoiseModel } from "../mmf/localNoise.js";
@@ -180,7 +180,9 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
     const kept = deblendPeaks(pass.raws, (k) => Math.max(sizes[k.sizeIndex] as number, maxBeam) / pixArcmin);
     const scratch = createFitScratch(bank);
     const nt = nodeTable(bank);
-    cands = kept.map((r, k) => refine(bank, table, sizes, r, scratch, nt, k, opts.tszSed, noise, nx));
+    const comb = combineSeds(bank, [opts.tszSed]);
+    // cleaning passes only need each detection's fit at its best size; the last pass scans all
+    cands = kept.map((r, k) => refine(bank, table, sizes, r, scratch, nt, k, opts.tszSed, noise, nx, comb, last));
     iterations = it;
     if (last) break;
     if (cands.length === 0 && it > 0) break;
@@ -225,11 +227,18 @@ function refine(
   sed: Float64Array,
   noise: WhiteNoiseModel | null,
   nx: number,
+  combined: readonly Float64Array[],
+  allSizes: boolean,
 ): Candidate {
   const snr: number[] = [];
   const errs: number[] = [];
-  const fits = sizes.map((th) => {
-    const f = fitAtPosition(bank, table, th * RAD_PER_ARCMIN, [sed], r.px, r.py, scratch, nt);
+  const fits = sizes.map((th, i) => {
+    if (!allSizes && i !== r.sizeIndex) {
+      snr.push(-Infinity);
+      errs.push(NaN);
+      return null;
+    }
+    const f = fitAtPosition(bank, table, th * RAD_PER_ARCMIN, [sed], r.px, r.py, scratch, nt, combined);
     let err = Math.sqrt(f.covariance[0] as number);
     if (noise !== null) err *= localSigmaFactor(whiteNoiseShares(bank, table, th * RAD_PER_ARCMIN, sed, err, noise.meanVariance), err, noise, r.iy * nx + r.ix);
     errs.push(err);
@@ -242,7 +251,7 @@ function refine(
   let hi = b;
   while (lo > 0 && (snr[lo - 1] as number) >= (snr[b] as number) - 1) lo--;
   while (hi < sizes.length - 1 && (snr[hi + 1] as number) >= (snr[b] as number) - 1) hi++;
-  const f = fits[b]!;
+  const f = fits[b] as NonNullable<(typeof fits)[number]>;
   const y0 = f.amplitudes[0] as number;
   const y0Err = errs[b] as number;
   const th = sizes[b] as number;

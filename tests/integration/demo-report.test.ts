@@ -59,7 +59,12 @@ describe.skipIf(CHROMIUM === undefined)("the demo report in headless chromium", 
       page.on("requestfailed", (r) => errors.push(`failed to load ${r.url()}`));
       await page.goto(pathToFileURL(join(dir, "report", "index.html")).href);
       await page.waitForLoadState("load");
-      const images = await page.$$eval("figure img", (imgs) => imgs.map((i) => ({ src: i.getAttribute("src"), w: (i as HTMLImageElement).naturalWidth, done: (i as HTMLImageElement).complete })));
+      const images = await page.$$eval("figure img", (imgs) =>
+        imgs.map((i) => {
+          const img = i as unknown as { naturalWidth: number; complete: boolean };
+          return { src: i.getAttribute("src"), w: img.naturalWidth, done: img.complete };
+        }),
+      );
       expect(images.length).toBeGreaterThanOrEqual(10);
       for (const im of images) {
         expect(im.done, String(im.src)).toBe(true);

@@ -86,15 +86,25 @@ export function runRealisation(field: SimulatedField, opts: RealisationOptions =
         ...(opts.searchSizesArcmin === undefined ? {} : { sizesArcmin: opts.searchSizesArcmin }),
       });
   const byId = new Map(forced.clusters.map((c) => [c.id, c]));
+  const recordTruth = truth.flatMap((c) => {
+    const m = byId.get(c.id);
+    if (m === undefined || !Number.isFinite(m.yErrArcmin2)) return [];
+    return [{ id: c.id, raDeg: c.raDeg, decDeg: c.decDeg, yArcmin2: c.y5r500Arcmin2, snrTrue: c.y5r500Arcmin2 / m.yErrArcmin2 }];
+  });
   const record: RealisationRecord = {
     seed: field.seed,
-    truth: truth.flatMap((c) => {
-      const m = byId.get(c.id);
-      if (m === undefined || !Number.isFinite(m.yErrArcmin2)) return [];
-      return [{ id: c.id, raDeg: c.raDeg, decDeg: c.decDeg, yArcmin2: c.y5r500Arcmin2, snrTrue: c.y5r500Arcmin2 / m.yErrArcmin2 }];
-    }),
+    truth: recordTruth,
     forced: forced.clusters.filter((c) => Number.isFinite(c.yArcmin2) && truth.some((t) => t.id === c.id)).map((c) => ({ id: c.id, yArcmin2: c.yArcmin2, yErrArcmin2: c.yErrArcmin2 })),
-    detections: (search?.candidates ?? []).map((d) => ({ raDeg: d.raDeg, decDeg: d.decDeg, snr: d.snrRaw })),
+    // a detection of a real cluster left out of the statistics (near the edge, or flagged in the
+    // forced photometry) is neither a false candidate nor a found one: drop it
+    detections: (search?.candidates ?? [])
+      .filter((d) => {
+        const cosDec = Math.cos((d.decDeg * Math.PI) / 180);
+        const near = (c: { raDeg: number; decDeg: number }) => Math.hypot((d.raDeg - c.raDeg) * cosDec, d.decDeg - c.decDeg) * 60 <= 2;
+        const counted = new Set(recordTruth.map((t) => t.id));
+        return !field.clusters.some((c) => !counted.has(c.id) && near(c)) || recordTruth.some((t) => near(t));
+      })
+      .map((d) => ({ raDeg: d.raDeg, decDeg: d.decDeg, snr: d.snrRaw })),
   };
   return { field, forced, search, record };
 }

@@ -4,8 +4,9 @@ Run: python3 tests/bench/measure_numpy.py DIR, where DIR holds maps.f64, table.f
 written by tests/bench/measure.ts. Prints JSON: seconds, y0 per cluster, numpy version.
 
 Same algorithm as packages/estimators (docs/matched-filter.md): cosine edge taper, rfft2,
-beam-deconvolved cross-powers in adaptive ell bins (>= minModes full-plane modes), [1, 2, 1]
-smoothing, inverse covariance on a fine ell grid (1/8 of the fundamental), pre-whitening
+beam-deconvolved cross-powers in adaptive ell bins (>= minModes full-plane modes, or at low ell
+half the lower edge wide with >= 12 x bands modes), [1, 2, 1]
+smoothing, diagonal loading to condition number <= 1e8, inverse covariance on a fine ell grid (1/8 of the fundamental), pre-whitening
 E = Q (M/B), combination with the tSZ SED, and per cluster the direct sum over Fourier modes
 y0 = b / Phi with b = sum tau(l) Re(D e^{+ik.x0}) / (Npix Omega), Phi = sum tau^2 a^T Q a / (Npix Omega^2).
 """
@@ -54,16 +55,21 @@ def main(folder):
     # adaptive bins
     fund = 2 * np.pi / (n * pix)
     lmax = ell.max()
-    nfine = int(lmax // fund) + 1
-    fine = np.minimum((ell // fund).astype(int), nfine - 1)
+    nfine = int(lmax / fund + 0.5) + 1
+    fine = np.minimum(np.floor(ell / fund + 0.5).astype(int), nfine - 1)
     counts = np.bincount(fine[ell > 0].ravel(), weights=hw[ell > 0].ravel(), minlength=nfine)
     edges = [1e-9]
     acc = 0.0
+    start = 0
+    floor = min(meta["minModes"], 12 * nb)
     for i in range(nfine):
         acc += counts[i]
-        if acc >= meta["minModes"]:
-            edges.append((i + 1) * fund)
+        width = (i + 1 - start) * fund
+        lo = max((start - 0.5) * fund, fund)
+        if acc >= meta["minModes"] or (acc >= floor and width >= 0.5 * lo):
+            edges.append((i + 0.5) * fund)
             acc = 0.0
+            start = i + 1
     if acc > 0:
         edges[-1] = lmax * (1 + 1e-12) + 1e-9
     edges = np.array(edges)
@@ -92,6 +98,17 @@ def main(folder):
         lo, hi = max(k - 1, 0), min(k + 1, nbins - 1)
         ws = [(kk, (2 if kk == k else 1) * wgt[kk]) for kk in range(lo, hi + 1)]
         Ps[k] = sum(w * P[kk] for kk, w in ws) / sum(w for _, w in ws)
+    # diagonal loading until the correlation matrix has condition number <= 1e8 (as umbra)
+    for k in range(nbins):
+        d = np.sqrt(np.diag(Ps[k]))
+        corr = Ps[k] / np.outer(d, d)
+        eps = 0.0
+        ev = np.linalg.eigvalsh(corr)
+        while not (ev[0] > 0) or ev[-1] / ev[0] > 1e8:
+            eps = 1e-10 if eps == 0 else eps * 10
+            ev = np.linalg.eigvalsh(corr + eps * np.diag(np.diag(corr)))
+        if eps > 0:
+            Ps[k][np.diag_indices(nb)] *= 1 + eps
     # nodes and inverse noise
     step = fund / 8
     nn = int(lmax // step) + 2

@@ -115,12 +115,15 @@ export function adaptiveBinEdges(
 ): Float64Array {
   let lmax = 0;
   for (let m = 0; m < ells.length; m++) if ((ells[m] as number) > lmax) lmax = ells[m] as number;
-  const nFine = Math.floor(lmax / minWidth) + 1;
+  // fine cells [(i − ½)w, (i + ½)w): edges at half-integer multiples of the fundamental, so no
+  // mode of a square-pixel map lies on an edge (ℓ = w·sqrt(a² + b²) is never a half-integer
+  // multiple of w) and the binning does not depend on rounding
+  const nFine = Math.floor(lmax / minWidth + 0.5) + 1;
   const counts = new Float64Array(nFine);
   for (let m = 0; m < ells.length; m++) {
     const l = ells[m] as number;
     if (l === 0) continue; // the mean is not a fluctuation
-    counts[Math.min(nFine - 1, Math.floor(l / minWidth))] += weights[m] as number;
+    counts[Math.min(nFine - 1, Math.floor(l / minWidth + 0.5))] += weights[m] as number;
   }
   const edges: number[] = [1e-9];
   let acc = 0;
@@ -128,9 +131,9 @@ export function adaptiveBinEdges(
   for (let i = 0; i < nFine; i++) {
     acc += counts[i] as number;
     const width = (i + 1 - start) * minWidth;
-    const lo = Math.max(start * minWidth, minWidth);
+    const lo = Math.max((start - 0.5) * minWidth, minWidth);
     if (acc >= minModes || (acc >= minModesFloor && width >= maxRelativeWidth * lo)) {
-      edges.push((i + 1) * minWidth);
+      edges.push((i + 0.5) * minWidth);
       acc = 0;
       start = i + 1;
     }

@@ -106,6 +106,35 @@ const SECTIONS: Section[] = [
       return [benchSearch(quick)];
     },
   },
+  {
+    name: "workers",
+    title: "Worker-thread speed-up (regression realisations)",
+    what: "`umbra regress` of the deep-small-field scenario (256², 3 bands) with 4 realisations (quick: 2), run in one thread and on 2 worker threads; both write identical files. Speed-up = one-thread time ÷ pool time (worker start-up included).",
+    async run(quick) {
+      const { run } = await import("../../packages/cli/src/main.js");
+      const { mkdtempSync, rmSync } = await import("node:fs");
+      const { tmpdir } = await import("node:os");
+      const { join } = await import("node:path");
+      const scenario = fileURLToPath(new URL("../../fixtures/scenarios/deep-small-field.json", import.meta.url));
+      const n = quick ? "2" : "4";
+      const dir = mkdtempSync(join(tmpdir(), "umbra-bench-workers-"));
+      const rows: Row[] = [];
+      try {
+        let base = 0;
+        for (const workers of [0, 2]) {
+          const t0 = performance.now();
+          const code = await run(["regress", "--scenario", scenario, "--realisations", n, "--seed", "1", "--randoms", "100", "--workers", String(workers), "--out", join(dir, `w${workers}`)]);
+          const seconds = (performance.now() - t0) / 1000;
+          if (code !== 0) throw new Error(`regress exited ${code}`);
+          if (workers === 0) base = seconds;
+          rows.push({ threads: workers === 0 ? "1 (in process)" : `${workers} workers`, realisations: Number(n), seconds, speedUp: base / seconds });
+        }
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+      return rows;
+    },
+  },
 ];
 
 function fmt(v: unknown): string {

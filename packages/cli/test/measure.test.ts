@@ -143,6 +143,7 @@ describe("umbra measure / search / regress on a simulated field", () => {
     const s = JSON.parse(readFileSync(join(out, "summary.json"), "utf8")) as { summary: { realisations: number; pulls: { n: number } } };
     expect(s.summary.realisations).toBe(1);
     expect(s.summary.pulls.n).toBeGreaterThan(5);
-    expect(existsSync(join(out, "regression-report.html"))).toBe(true);
+    expect(existsSync(join(out, "report", "index.html"))).toBe(true);
+    expect(existsSync(join(out, "realisations", "seed-3.json"))).toBe(true);
   }, 180_000);
 });

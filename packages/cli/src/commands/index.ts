@@ -4,6 +4,7 @@
  */
 import type { Command } from "commander";
 import { register as registerDemo } from "./demo.js";
+import { register as registerMerge } from "./merge.js";
 import { register as registerRegress } from "./regress.js";
 import { register as registerSearch } from "./search.js";
 import { register as registerMeasure } from "./measure.js";
@@ -16,4 +17,4 @@ import { register as registerSimulate } from "./simulate.js";
 /** Adds one subcommand to the program. */
 export type RegisterCommand = (program: Command) => void;
 
-export const COMMANDS: readonly RegisterCommand[] = [registerDemo, registerRegress, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap, registerInspect];
+export const COMMANDS: readonly RegisterCommand[] = [registerDemo, registerRegress, registerMerge, registerSearch, registerMeasure, registerSed, registerCluster, registerSimulate, registerYMap, registerInspect];

@@ -16,17 +16,14 @@ import {
   type MeasureResult,
   type SearchResult,
 } from "@umbra/estimators";
-import { gaussianBeam, writeTextAtomic } from "@umbra/maps";
-import {
-  loadScenario,
-  regressionSummary,
-  simulateField,
-  writeRegressionReport,
-  type RealisationRecord,
-  type SimulatedField,
-} from "@umbra/simulate";
-import { VERSION } from "../version.js";
-import { fileSha256, jsonSafe, numberOption, progress } from "./measure.js";
+import { gaussianBeam } from "@umbra/maps";
+import { loadScenario, type RealisationRecord, type SimulatedField } from "@umbra/simulate";
+import { fileSha256, numberOption, progress } from "./measure.js";
+import { parseShard, shardRange } from "../shard.js";
+import { runPool } from "../regress/pool.js";
+import { realisationResult, type RealisationJob } from "../regress/worker.js";
+import { readRealisations, runKeyOf, writeRealisation, writeRegressOutputs, type ScenarioRef } from "../regress/outputs.js";
+import type { RealisationResult, RegressSettings } from "../regress/types.js";
 
 /** The simulated field as a band stack in K_CMB (the maps divided by their K_CMB→unit factor). */
 export function stackFromSimulatedField(field: SimulatedField): BandStack {
@@ -116,6 +113,9 @@ interface RegressCliOptions {
   seed: string;
   snrMin: string;
   randoms: string;
+  shard?: string;
+  workers: string;
+  resume?: boolean;
 }
 
 async function runRegress(o: RegressCliOptions): Promise<void> {
@@ -123,33 +123,41 @@ async function runRegress(o: RegressCliOptions): Promise<void> {
   const seed0 = numberOption("seed", o.seed, Number.isInteger, "must be an integer");
   const snrMin = numberOption("snr-min", o.snrMin, (v) => v > 0, "must be > 0");
   const randomCount = numberOption("randoms", o.randoms, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0");
-  const loaded = await loadScenario(o.scenario);
+  const workers = numberOption("workers", o.workers, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0 (0: run in this thread)");
+  const shard = o.shard === undefined ? null : parseShard(o.shard);
+  await loadScenario(o.scenario); // validate before any work; workers load it again
+  const scenarioPath = resolve(o.scenario);
+  const scenario: ScenarioRef = { path: scenarioPath, sha256: await fileSha256(o.scenario) };
+  const settings: RegressSettings = { realisations: n, firstSeed: seed0, snrMin, randoms: randomCount, profile: "gnfw-a10", filter: "mmf" };
+  const runKey = runKeyOf(scenario, settings);
   await mkdir(o.out, { recursive: true });
-  const records: RealisationRecord[] = [];
-  const randomChecks: unknown[] = [];
-  for (let r = 0; r < n; r++) {
+  const { start, end } = shard === null ? { start: 0, end: n } : shardRange(n, shard);
+  const done = o.resume === true ? await readRealisations([o.out]) : new Map<number, RealisationResult>();
+  const results: RealisationResult[] = [];
+  const jobs: RealisationJob[] = [];
+  for (let r = start; r < end; r++) {
     const seed = seed0 + r;
-    progress(`umbra regress: realisation ${r + 1}/${n} (seed ${seed})`);
-    const field = simulateField(loaded.scenario, seed, loaded.cmbTable === undefined ? {} : { cmbTable: loaded.cmbTable });
-    const run = runRealisation(field, { snrMin, randomCount });
-    records.push(run.record);
-    randomChecks.push({ seed, randomScatter: run.forced.diagnostics.randomScatter, iterations: run.forced.diagnostics.iterations });
+    const prev = done.get(seed);
+    if (prev !== undefined && prev.runKey === runKey) results.push(prev);
+    else jobs.push({ scenarioPath, seed, snrMin, randomCount, runKey });
   }
-  const summary = regressionSummary(records);
-  const doc = {
-    provenance: {
-      tool: "umbra",
-      version: VERSION,
-      command: "regress",
-      inputs: [{ path: resolve(o.scenario), sha256: await fileSha256(o.scenario) }],
-      settings: { realisations: n, firstSeed: seed0, snrMin, randoms: randomCount, profile: "gnfw-a10", filter: "mmf" },
-    },
-    summary,
-    randomPositionChecks: randomChecks,
+  if (results.length > 0) progress(`umbra regress: resuming, ${results.length} realisation(s) already done`);
+  let finished = results.length;
+  const total = end - start;
+  const keep = async (res: RealisationResult): Promise<void> => {
+    await writeRealisation(o.out, scenario, settings, res);
+    results.push(res);
+    finished++;
+    progress(`umbra regress: realisation ${finished}/${total} done (seed ${res.seed})`);
   };
-  await writeTextAtomic(join(o.out, "summary.json"), `${JSON.stringify(doc, jsonSafe, 2)}\n`);
-  await writeRegressionReport(summary, o.out);
-  progress(`umbra regress: wrote ${join(o.out, "summary.json")}`);
+  if (workers > 0) await runPool(jobs, workers, keep);
+  else for (const job of jobs) await keep(await realisationResult(job));
+  if (shard !== null) {
+    progress(`umbra regress: shard ${shard.index}/${shard.count} wrote ${total} realisation(s) to ${join(o.out, "realisations")}; join the shards with umbra merge`);
+    return;
+  }
+  await writeRegressOutputs(o.out, scenario, settings, results);
+  progress(`umbra regress: wrote ${join(o.out, "summary.json")} and ${join(o.out, "report", "index.html")}`);
 }
 
 /** Register `umbra regress`. */
@@ -159,10 +167,13 @@ export function register(program: Command): void {
     .description("Simulate skies of a scenario, run forced photometry and blind search, and report bias, pulls, completeness and purity.")
     .requiredOption("--scenario <scenario.json>", "simulation scenario (JSON, see @umbra/simulate)")
     .requiredOption("--realisations <n>", "number of simulated skies")
-    .requiredOption("--out <dir>", "output folder for summary.json and the HTML/SVG report")
+    .requiredOption("--out <dir>", "output folder: realisations/seed-<n>.json, summary.json and report/index.html")
     .option("--seed <n>", "seed of the first realisation (realisation r uses seed + r)", "1")
     .option("--snr-min <snr>", "raw S/N threshold of the blind search", "4")
     .option("--randoms <n>", "random positions for the empirical error per realisation", "200")
+    .option("--shard <i/N>", "run only the i-th of N contiguous blocks of realisations (1-based; join the shards' folders with umbra merge)")
+    .option("--workers <n>", "worker threads, one realisation each at a time (0: this thread)", "0")
+    .option("--resume", "reuse realisations already in <out>/realisations made with the same scenario and settings")
     .action(async (o: RegressCliOptions) => runRegress(o));
 }
 

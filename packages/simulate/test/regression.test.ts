@@ -1,23 +1,19 @@
 /**
  * Regression statistics: matching, binomial intervals, pulls, bias, completeness, purity, position
- * errors and the report. Reference numbers: fixtures/simulate/regression_reference.json (made by
+ * errors. Reference numbers: fixtures/simulate/regression_reference.json (made by
  * fixtures/simulate/make_regression_reference.py with astropy 5.2.1 and scipy 1.10.1).
  */
-import { mkdtempSync, readFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { createRng } from "@umbra/core";
 import {
   matchDetections,
   meanWithError,
-  regressionReportHtml,
   regressionSummary,
   separationArcmin,
   stdWithError,
   wilsonFraction,
-  writeRegressionReport,
   type RealisationRecord,
 } from "../src/regression/index.js";
 
@@ -125,15 +121,5 @@ describe("regression summary", () => {
     const a = JSON.stringify(regressionSummary(fakeRecords(5, 0, 1)));
     const b = JSON.stringify(regressionSummary(fakeRecords(5, 0, 1)));
     expect(a).toBe(b);
-  });
-  it("writes the JSON summary and an HTML report with one SVG per panel", async () => {
-    const dir = mkdtempSync(join(tmpdir(), "umbra-regress-"));
-    const s = regressionSummary(fakeRecords(3, 0, 1));
-    const { jsonPath, htmlPath } = await writeRegressionReport(s, dir);
-    expect(JSON.parse(readFileSync(jsonPath, "utf8")).realisations).toBe(3);
-    const html = readFileSync(htmlPath, "utf8");
-    expect(html.match(/<svg /g)?.length).toBe(4);
-    expect(html).toContain("true S/N");
-    expect(regressionReportHtml(s)).toBe(html);
   });
 });

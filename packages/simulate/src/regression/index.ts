@@ -4,6 +4,3 @@ export type { MatchPair, MatchResult } from "./match.js";
 export { meanWithError, stdWithError, wilsonFraction, median, bootstrap } from "./statistics.js";
 export { regressionSummary } from "./summary.js";
 export type { RegressionOptions, RegressionSummary, BiasBin } from "./summary.js";
-export { errorPlotSvg } from "./svgPlot.js";
-export type { ErrorPlotData } from "./svgPlot.js";
-export { regressionReportHtml, writeRegressionReport } from "./report.js";

@@ -21,10 +21,8 @@ import {
   type HaloCountGrid,
 } from "@umbra/clusters";
 import { pixelToWorld, worldToPixel, type Wcs } from "@umbra/maps";
+import { ELECTRON_REST_ENERGY_KEV } from "@umbra/spectra";
 import type { Scenario } from "../scenario/schema.js";
-
-/** Electron rest energy in keV (CODATA 2018). */
-const ME_C2_KEV = 510.99895;
 
 /** One true cluster (units in the names). */
 export interface TrueCluster {
@@ -138,7 +136,7 @@ export function drawClusters(scenario: Scenario, cosmo: Cosmology, wcs: Wcs, rng
       y5r500Arcmin2: y5r500Arcmin2(profile, scale) * scatter,
       kTeKeV,
       vLosKmS: s.vLosKmS ?? vDraw,
-      tau0: (y0 * ME_C2_KEV) / kTeKeV,
+      tau0: (y0 * ELECTRON_REST_ENERGY_KEV) / kTeKeV,
       inField,
       nearEdge: !inField || s.xPix < margin - 0.5 || s.yPix < margin - 0.5 || s.xPix > nx - 0.5 - margin || s.yPix > ny - 0.5 - margin,
     };

@@ -58,7 +58,7 @@ function scenario(n: number, nClusters: number): unknown {
 export function benchMeasure(quick: boolean, full: boolean): Record<string, unknown>[] {
   const n = quick ? 512 : 2048;
   const nClusters = quick ? 100 : 1000;
-  const field = simulateField(parseScenario(scenario(n, nClusters)), 2026);
+  const field = simulateField(parseScenario(scenario(n, nClusters), "bench-measure"), 2026);
   const stack = stackFromSimulatedField(field);
   const truth = field.clusters.filter((c) => c.inField);
   const cat = truth.map((c) => ({ id: c.id, raDeg: c.raDeg, decDeg: c.decDeg, theta500Arcmin: c.theta500Arcmin }));

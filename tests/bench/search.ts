@@ -27,7 +27,7 @@ function scenario(n: number): unknown {
 /** Run the benchmark; returns one JSON-able row. */
 export function benchSearch(quick: boolean): Record<string, unknown> {
   const n = quick ? 512 : 2048;
-  const field = simulateField(parseScenario(scenario(n)), 2027);
+  const field = simulateField(parseScenario(scenario(n), "bench-search"), 2027);
   const stack = stackFromSimulatedField(field);
   const profile = a10ProfileShape();
   const t0 = performance.now();

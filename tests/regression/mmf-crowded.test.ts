@@ -42,7 +42,7 @@ describe("crowded field of bright clusters", () => {
   const raw: { pull: number; err: number }[] = [];
 
   beforeAll(() => {
-    const sc = parseScenario(scenario());
+    const sc = parseScenario(scenario(), "crowded-bright");
     for (const seed of [41, 42]) {
       const field = simulateField(sc, seed);
       const stack = stackFromSimulatedField(field);

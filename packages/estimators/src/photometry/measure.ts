@@ -17,16 +17,15 @@ import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares } from "../mmf/loca
 import { deconvolveBeams, estimateBandCovariance } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
 import type { BandStack } from "../stack/types.js";
+import { ELECTRON_REST_ENERGY_KEV, SPEED_OF_LIGHT_MPS } from "@umbra/spectra";
 import { FATAL_FLAGS, positionFlags, type ClusterFlag } from "./flags.js";
 import { paintClusters, type PaintedCluster } from "./model.js";
 import { prepareStack, type PreparedStack } from "./prepare.js";
 import { randomAllowedMask, randomPositionScatter, type RandomScatter } from "./randoms.js";
 import type { CatalogueCluster, ClusterMeasurement, MeasureOptions, MeasureResult, ScanPoint } from "./types.js";
 
-/** Electron rest energy m_e c² in keV (CODATA 2018). */
-const ME_C2_KEV = 510.99895;
-/** Speed of light in km/s (exact, SI definition). */
-const C_KMS = 299792.458;
+/** Speed of light in km/s (from the CODATA module of @umbra/spectra). */
+const C_KMS = SPEED_OF_LIGHT_MPS / 1000;
 
 /** Default scan: 15 sizes log-spaced from 0.5 to 10 arcmin. */
 export const DEFAULT_SCAN_SIZES_ARCMIN: readonly number[] = Array.from({ length: 15 }, (_, i) => 0.5 * Math.pow(20, i / 14));
@@ -375,7 +374,7 @@ function toMeasurement(
     if (t.knownTeKeV > 0) {
       // a_k = τ_e0 v/c with τ_e0 = y0 m_e c²/kTe (isothermal: y = (kTe/m_e c²) τ); linearised errors
       const a = f.amplitudes[1] as number;
-      const dvda = (C_KMS * t.knownTeKeV) / (ME_C2_KEV * y0);
+      const dvda = (C_KMS * t.knownTeKeV) / (ELECTRON_REST_ENERGY_KEV * y0);
       vLosKms = a * dvda;
       const dvdy = -vLosKms / y0;
       const nc = 2;

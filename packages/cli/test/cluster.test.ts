@@ -1,7 +1,7 @@
-import { afterEach, describe, expect, it, vi } from "vitest";
+import { afterEach, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
-import { run } from "../src/main.js";
+import { capture } from "./capture.js";
 
 interface CosmoRef {
   name: string;
@@ -13,25 +13,6 @@ const REF = JSON.parse(readFileSync(fileURLToPath(new URL("../../../fixtures/clu
   cosmologies: CosmoRef[];
 };
 
-async function capture(argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const o = vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => {
-    out += String(s);
-    return true;
-  });
-  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => {
-    err += String(s);
-    return true;
-  });
-  try {
-    const code = await run(argv);
-    return { code, out, err };
-  } finally {
-    o.mockRestore();
-    e.mockRestore();
-  }
-}
 
 afterEach(() => {
   process.exitCode = undefined;

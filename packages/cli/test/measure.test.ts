@@ -2,14 +2,14 @@
  * `umbra measure`, `umbra search` and `umbra regress` end to end on an invented simulated field
  * written to FITS by @umbra/simulate (the deep-small-field scenario, one fixed seed).
  */
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadScenario, simulateField, writeSimulatedField } from "../../simulate/src/index.js";
-import { run } from "../src/main.js";
+import { capture } from "./capture.js";
 import { MEASURE_COLUMNS } from "../src/commands/measure.js";
 
 /** Parse a CSV without quoted fields (what these outputs are) into rows keyed by the header. */
@@ -24,18 +24,6 @@ function parse(text: string, _opts: unknown): Record<string, string>[] {
 
 const ROOT = fileURLToPath(new URL("../../../", import.meta.url));
 
-async function capture(argv: string[]): Promise<{ code: number; err: string }> {
-  let err = "";
-  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => {
-    err += String(s);
-    return true;
-  });
-  try {
-    return { code: await run(argv), err };
-  } finally {
-    e.mockRestore();
-  }
-}
 
 describe("umbra measure / search / regress on a simulated field", () => {
   let dir = "";

@@ -1,29 +1,11 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { readFitsImage } from "@umbra/maps";
-import { run } from "../src/main.js";
+import { capture } from "./capture.js";
 import { yMapOptionsFrom } from "../src/commands/ymap.js";
 
-async function capture(argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const o = vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => {
-    out += String(s);
-    return true;
-  });
-  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => {
-    err += String(s);
-    return true;
-  });
-  try {
-    return { code: await run(argv), out, err };
-  } finally {
-    o.mockRestore();
-    e.mockRestore();
-  }
-}
 
 afterEach(() => {
   process.exitCode = undefined;

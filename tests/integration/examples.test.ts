@@ -10,8 +10,8 @@ const dir = fileURLToPath(new URL("../../docs/examples/", import.meta.url));
 const examples = readdirSync(dir).filter((f) => f.endsWith(".ts")).sort();
 
 describe("docs/examples", () => {
-  it("has the four guided examples", () => {
-    expect(examples.length).toBeGreaterThanOrEqual(4);
+  it("has the guided examples (README snippet, load maps, measure, y map, regression)", () => {
+    expect(examples.length).toBeGreaterThanOrEqual(5);
   });
   it.each(examples)("%s runs with tsx and prints results", (name) => {
     const r = spawnSync(process.execPath, ["--import", "tsx", `${dir}${name}`], { encoding: "utf8", timeout: 240_000 });

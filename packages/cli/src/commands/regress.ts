@@ -20,6 +20,7 @@ import { gaussianBeam } from "@umbra/maps";
 import { loadScenario, type RealisationRecord, type SimulatedField } from "@umbra/simulate";
 import { fileSha256, numberOption, progress } from "./measure.js";
 import { parseShard, shardRange } from "../shard.js";
+import { progressBar } from "../progress.js";
 import { runPool } from "../regress/pool.js";
 import { realisationResult, type RealisationJob } from "../regress/worker.js";
 import { readRealisations, runKeyOf, writeRealisation, writeRegressOutputs, type ScenarioRef } from "../regress/outputs.js";
@@ -144,14 +145,19 @@ async function runRegress(o: RegressCliOptions): Promise<void> {
   if (results.length > 0) progress(`umbra regress: resuming, ${results.length} realisation(s) already done`);
   let finished = results.length;
   const total = end - start;
+  const bar = progressBar("umbra regress: realisations", total, finished);
   const keep = async (res: RealisationResult): Promise<void> => {
     await writeRealisation(o.out, scenario, settings, res);
     results.push(res);
     finished++;
-    progress(`umbra regress: realisation ${finished}/${total} done (seed ${res.seed})`);
+    bar.update(finished);
   };
-  if (workers > 0) await runPool(jobs, workers, keep);
-  else for (const job of jobs) await keep(await realisationResult(job));
+  try {
+    if (workers > 0) await runPool(jobs, workers, keep);
+    else for (const job of jobs) await keep(await realisationResult(job));
+  } finally {
+    bar.stop();
+  }
   if (shard !== null) {
     progress(`umbra regress: shard ${shard.index}/${shard.count} wrote ${total} realisation(s) to ${join(o.out, "realisations")}; join the shards with umbra merge`);
     return;

@@ -33,11 +33,11 @@ const SECTIONS: Section[] = [
       const rows = (await benchFft({ quick })) as unknown as Row[];
       const py = spawnSync("python3", [fileURLToPath(new URL("./fft_numpy.py", import.meta.url)), ...(quick ? ["--quick"] : [])], { encoding: "utf8" });
       if (py.status !== 0) return rows.map((r) => ({ ...r, numpySeconds: "numpy unavailable" }));
-      const np = JSON.parse(py.stdout) as { numpy?: string; rows: { nx: number; ny: number; roundTripSeconds: number }[] };
+      const np = JSON.parse(py.stdout) as { library?: string; rows: { nx: number; ny: number; roundTripSeconds: number }[] };
       return rows.map((r) => {
         const ref = np.rows.find((q) => q.nx === r["nx"] && q.ny === r["ny"]);
         const s = r["roundTripSeconds"] as number;
-        return { ...r, numpySeconds: ref?.roundTripSeconds ?? null, ratio: ref === undefined ? null : s / ref.roundTripSeconds, numpy: np.numpy ?? "" };
+        return { ...r, numpySeconds: ref?.roundTripSeconds ?? null, ratio: ref === undefined ? null : s / ref.roundTripSeconds, reference: np.library ?? "" };
       });
     },
   },
@@ -47,7 +47,17 @@ const SECTIONS: Section[] = [
     what: "Process peak RSS (MB) with six 4096² maps held (768 MB) while each is transformed forward and back with one reused spectrum buffer; numpy's peak for the same from the numpy script.",
     async run(quick) {
       const { benchSixBandMemory } = await import("./fft.js");
-      return [{ ...benchSixBandMemory(quick ? 1024 : 4096) }];
+      const n = quick ? 1024 : 4096;
+      const ours = benchSixBandMemory(n);
+      const rows: Row[] = [{ program: "umbra (float64 plan, one spectrum buffer)", ...ours, twoBandBuffersMB: (2 * n * (n / 2 + 1) * 16) / 2 ** 20 }];
+      if (!quick) {
+        const py = spawnSync("python3", [fileURLToPath(new URL("./fft_numpy.py", import.meta.url))], { encoding: "utf8" });
+        if (py.status === 0) {
+          const np = JSON.parse(py.stdout) as { library?: string; peakRssMBSixBands4096?: number };
+          rows.push({ program: `${np.library ?? "numpy"} (rfft2/irfft2, one band's spectrum alive at a time)`, peakRssMB: np.peakRssMBSixBands4096 ?? null, mapsMB: ours.mapsMB });
+        }
+      }
+      return rows;
     },
   },
   {
@@ -109,14 +119,14 @@ const SECTIONS: Section[] = [
   {
     name: "workers",
     title: "Worker-thread speed-up (regression realisations)",
-    what: "`umbra regress` of the deep-small-field scenario (256², 3 bands) with 4 realisations (quick: 2), run in one thread and on 2 worker threads; both write identical files. Speed-up = one-thread time ÷ pool time (worker start-up included).",
+    what: "`umbra regress` of the deep-small-field scenario (256², 3 bands) with 12 realisations (quick: 2), run in one thread and on 2 worker threads; both write identical files. Speed-up = one-thread time ÷ pool time (worker start-up, about 2 s per thread, included).",
     async run(quick) {
       const { run } = await import("../../packages/cli/src/main.js");
       const { mkdtempSync, rmSync } = await import("node:fs");
       const { tmpdir } = await import("node:os");
       const { join } = await import("node:path");
       const scenario = fileURLToPath(new URL("../../fixtures/scenarios/deep-small-field.json", import.meta.url));
-      const n = quick ? "2" : "4";
+      const n = quick ? "2" : "12";
       const dir = mkdtempSync(join(tmpdir(), "umbra-bench-workers-"));
       const rows: Row[] = [];
       try {

@@ -3,15 +3,16 @@
  * user runs (`simulate`, `measure`, `search`, `ymap`), then a report folder with figures and a
  * compact table on stdout. Nothing here is canned: every number comes from this run.
  */
-import { mkdir, readdir } from "node:fs/promises";
+import { mkdir, readdir, readFile } from "node:fs/promises";
 import { join } from "node:path";
 import { UmbraError } from "@umbra/core";
 import { cutout, readFitsImage, writeFileAtomic, worldToPixel, type SkyMap } from "@umbra/maps";
 import { mapChart, stampGrid, type Figure, type Stamp } from "@umbra/plot";
 import { regressionSummary, matchDetections, type RegressionSummary } from "@umbra/simulate";
+import type { FilterRadialProfile } from "@umbra/estimators";
 import { demoScenario } from "./scenario.js";
 import { num, readRows, realisationRecord } from "../report/tables.js";
-import { completenessFigure, foregroundSedFigure, pullHistogram, purityFigure, tszSedFigure, yBiasFigure, yMeasuredVsTrue } from "../report/figures.js";
+import { completenessFigure, filterProfileFigure, foregroundSedFigure, pullHistogram, purityFigure, tszSedFigure, yBiasFigure, yMeasuredVsTrue } from "../report/figures.js";
 import { writeReport, type ReportInput } from "../report/write.js";
 
 /** Options of {@link runDemo}. */
@@ -96,6 +97,9 @@ export async function runDemo(o: DemoOptions): Promise<DemoSummary> {
     figures.push(mapChart({ name: `band-${b.name}`, caption: `Band ${b.name} (${b.frequencyGHz} GHz) as simulated, in its own unit ${b.unit}, with the blind candidates circled.`, title: `${b.name}: ${b.frequencyGHz} GHz`, data: m.data, nx: m.nx, ny: m.ny, pixelArcmin: 0.5, colourbarLabel: `T [${b.unit}]`, markers, displayPx: 320 }));
   });
   figures.push(stampFigure(forced, maps, bands));
+  const measureDoc = JSON.parse(await readFile(join(out, "measure.json"), "utf8")) as { diagnostics: { filterProfile: FilterRadialProfile | null } | null };
+  const fp = measureDoc.diagnostics?.filterProfile ?? null;
+  if (fp !== null) figures.push(filterProfileFigure(fp, bands.map((b) => b.name)));
   figures.push(tszSedFigure(bands), foregroundSedFigure(bands), yMeasuredVsTrue([record]), pullHistogram([record], summary), yBiasFigure(summary), completenessFigure(summary), purityFigure(summary));
 
   const top = [...forced].filter((r) => Number.isFinite(num(r, "snr"))).sort((a, b) => num(b, "snr") - num(a, "snr")).slice(0, 12);
@@ -109,7 +113,7 @@ export async function runDemo(o: DemoOptions): Promise<DemoSummary> {
     { kind: "heading", text: "Forced photometry" },
     { kind: "table", columns: ["id", "true Y5R500 [arcmin²]", "measured Y5R500 [arcmin²]", "error [arcmin²]", "S/N", "flags"], rows: tableRows, caption: `The ${top.length} highest-S/N clusters of the ${forced.length} catalogued; all rows are in measure.csv.` },
     { kind: "paragraph", text: `Pulls over ${summary.pulls.n} clusters: mean ${summary.pulls.mean.value.toFixed(2)} ± ${summary.pulls.mean.error.toFixed(2)}, standard deviation ${summary.pulls.std.value.toFixed(2)} ± ${summary.pulls.std.error.toFixed(2)}. One field is a small sample: the regression tests and docs/validation.md use many.` },
-    ...figures.filter((f) => ["y-measured-vs-true", "pulls", "y-bias", "stamps"].includes(f.name)).map((figure) => ({ kind: "figure" as const, figure })),
+    ...figures.filter((f) => ["y-measured-vs-true", "pulls", "y-bias", "stamps", "filter-profile"].includes(f.name)).map((figure) => ({ kind: "figure" as const, figure })),
     { kind: "heading", text: "Blind search" },
     { kind: "paragraph", text: `${candidates.length} candidates with raw S/N ≥ 4.5 (the threshold uses the raw S/N maximised over position and size; the debiased S/N is in candidates.csv). ${false5} candidate(s) with S/N ≥ 5 match no true cluster within ${summary.options.matchRadiusArcmin}′ (${(false5 / areaDeg2 * 10).toFixed(1)} per 10 deg²).` },
     ...figures.filter((f) => ["snr-map", "completeness", "purity"].includes(f.name)).map((figure) => ({ kind: "figure" as const, figure })),

@@ -6,6 +6,7 @@
 import { histogramChart, xyChart, type Figure } from "@umbra/plot";
 import type { RealisationRecord, RegressionSummary } from "@umbra/simulate";
 import { componentResponse, type ComponentSpec } from "@umbra/spectra";
+import type { FilterRadialProfile } from "@umbra/estimators";
 
 /** Standard normal density (the expected pull distribution). */
 function unitNormal(x: number): number {
@@ -151,5 +152,18 @@ export function foregroundSedFigure(bands: readonly { name: string; frequencyGHz
       { label: "radio", x: f, y: rel(radio, f) },
       { label: "bands", x: bandX, y: rel(dust, bandX), style: "points" },
     ],
+  });
+}
+
+/** The matched filter's per-band weight against ℓ at one size (normalised; from measure's diagnostics). */
+export function filterProfileFigure(p: FilterRadialProfile, bandNames: readonly string[]): Figure {
+  return xyChart({
+    name: "filter-profile",
+    caption: `Matched-filter weight per band against multipole ℓ for θ500 = ${p.thetaArcmin.toFixed(2)}′ (the median catalogue size), Ψ_i(ℓ) ∝ [P⁻¹(a∘B)]_i τ̃(ℓ), normalised to a peak |Ψ| of 1 over all bands. Bands below the tSZ null enter with one sign, bands above with the other; large scales are suppressed where the CMB dominates.`,
+    title: "Filter profile in ℓ",
+    x: { label: "multipole ℓ" },
+    y: { label: "filter weight (normalised)" },
+    series: bandNames.map((name, i) => ({ label: name, x: p.ell, y: p.weights[i] ?? [] })),
+    hLines: [0],
   });
 }

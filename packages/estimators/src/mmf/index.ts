@@ -11,3 +11,5 @@ export type { SedFilter } from "./filteredMap.js";
 export { a10ProfileShape } from "./gnfw.js";
 export { whiteNoiseModel, whiteNoiseShares, localSigmaFactor } from "./localNoise.js";
 export type { WhiteNoiseModel } from "./localNoise.js";
+export { filterRadialProfile } from "./filterProfile.js";
+export type { FilterRadialProfile } from "./filterProfile.js";

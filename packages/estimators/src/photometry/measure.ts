@@ -12,6 +12,7 @@ import { buildFilterBank, rewhitenBank, type FilterBank } from "../mmf/bank.js";
 import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
 import { prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileTable } from "../mmf/profile.js";
+import { filterRadialProfile, type FilterRadialProfile } from "../mmf/filterProfile.js";
 import { detectPointSources, type PointSource } from "../sources/detect.js";
 import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares } from "../mmf/localNoise.js";
 import { deconvolveBeams, estimateBandCovariance } from "../noise/estimate.js";
@@ -308,8 +309,17 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
       randomScatter: randoms.map((r) => ({ thetaArcmin: r.thetaRad / RAD_PER_ARCMIN, sigmaAnalytic: r.sigmaAnalytic, sigmaRandom: r.sigmaRandom, count: r.count })),
       covarianceSource: opts.noiseCovariance === undefined ? "data" : "simulations",
       pointSources: sources.length,
+      filterProfile: medianFilterProfile(bank, table, targets, opts),
     },
   };
+}
+
+/** The filter's radial profile per band at the median catalogue size (non-relativistic tSZ SED), for plots. */
+function medianFilterProfile(bank: FilterBank, table: ProfileTable, targets: readonly Target[], opts: MeasureOptions): FilterRadialProfile | null {
+  const sizes = targets.flatMap((t) => (t.thetaArcmin !== null && t.thetaArcmin > 0 ? [t.thetaArcmin] : [])).sort((a, b) => a - b);
+  if (sizes.length === 0) return null;
+  const theta = sizes[Math.floor(sizes.length / 2)] as number;
+  return filterRadialProfile(bank, table, theta * RAD_PER_ARCMIN, opts.seds.tsz(0));
 }
 
 function randomErrors(prep: PreparedStack, bank: FilterBank, table: ProfileTable, targets: readonly Target[], fits: readonly (TargetFit | null)[], opts: MeasureOptions): RandomScatter[] {

@@ -5,6 +5,7 @@ import type { CovarianceOptions } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
 import type { ProfileShape } from "../mmf/profile.js";
 import type { ClusterFlag } from "./flags.js";
+import type { FilterRadialProfile } from "../mmf/filterProfile.js";
 
 /** One catalogue row (optional fields null when absent). */
 export interface CatalogueCluster {
@@ -135,6 +136,8 @@ export interface MeasureDiagnostics {
   readonly covarianceSource: "data" | "simulations";
   /** Point sources detected (all bands below 200 GHz, counted per band). */
   readonly pointSources: number;
+  /** The filter's per-band radial profile in ℓ at the median catalogue size (null without sizes). */
+  readonly filterProfile: FilterRadialProfile | null;
 }
 
 /** Result of forced photometry. */

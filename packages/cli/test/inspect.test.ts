@@ -2,10 +2,11 @@
  * `umbra inspect`: HDU list, WCS summary and statistics, against astropy 5.2.1's reading of the
  * fixtures (fixtures/fits/expected.json) and numpy-style statistics of those pixels.
  */
-import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { run } from "../src/main.js";
+import { captureOutputEachTest } from "./capture.js";
 import { pixelStats } from "../src/commands/inspect.js";
 
 const FIXTURES = fileURLToPath(new URL("../../../fixtures/fits/", import.meta.url));
@@ -13,24 +14,7 @@ const EXPECTED = JSON.parse(readFileSync(`${FIXTURES}expected.json`, "utf8")) as
   files: Record<string, { hdus: { pixels?: (number | null)[] }[] }>;
 };
 
-let out = "";
-let err = "";
-beforeEach(() => {
-  out = "";
-  err = "";
-  vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => {
-    out += String(s);
-    return true;
-  });
-  vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => {
-    err += String(s);
-    return true;
-  });
-});
-afterEach(() => {
-  vi.restoreAllMocks();
-  process.exitCode = undefined;
-});
+const io = captureOutputEachTest();
 
 interface Json {
   files: {
@@ -61,7 +45,7 @@ function reference(list: (number | null)[]): number[] {
 describe("umbra inspect", () => {
   it("--json lists every HDU with type, shape, BITPIX, unit, WCS and statistics", async () => {
     expect(await run(["inspect", "--json", `${FIXTURES}multi_ext.fits`])).toBe(0);
-    const j = JSON.parse(out) as Json;
+    const j = JSON.parse(io.out) as Json;
     const hdus = j.files[0]!.hdus!;
     expect(hdus.map((h) => [h.index, h.type, h.extname, h.shape, h.bitpix])).toEqual([
       [0, "PRIMARY", null, [], 8],
@@ -84,7 +68,7 @@ describe("umbra inspect", () => {
 
   it("counts NaN pixels and BLANK integers, including in tile-compressed images", async () => {
     expect(await run(["inspect", "--json", `${FIXTURES}f64_nan.fits`, `${FIXTURES}rice_int16.fits`])).toBe(0);
-    const j = JSON.parse(out) as Json;
+    const j = JSON.parse(io.out) as Json;
     const f64 = j.files[0]!.hdus![0]!.stats!;
     expect([f64.min, f64.max, f64.mean, f64.std, f64.nan_count]).toAllClose(reference(EXPECTED.files["f64_nan.fits"]!.hdus[0]!.pixels!), { rtol: 1e-12 });
     const rice = j.files[1]!.hdus![1]!;
@@ -96,21 +80,21 @@ describe("umbra inspect", () => {
 
   it("describes a gzip-compressed file as the plain one", async () => {
     expect(await run(["inspect", "--json", `${FIXTURES}f32_nan.fits`, `${FIXTURES}f32_nan.fits.gz`])).toBe(0);
-    const j = JSON.parse(out) as Json;
+    const j = JSON.parse(io.out) as Json;
     expect(j.files[1]!.hdus).toEqual(j.files[0]!.hdus);
   });
 
   it("prints a readable text summary by default", async () => {
     expect(await run(["inspect", `${FIXTURES}multi_ext.fits`])).toBe(0);
-    expect(out).toContain("HDU 1  IMAGE 'YMAP'  7 × 5  BITPIX -32");
-    expect(out).toContain("WCS TAN ICRS");
-    expect(out).toContain("pixel 0.5000 × 0.5000 arcmin");
-    expect(out).toContain("HDU 2  BINTABLE 'SOURCES'  3 rows of 22 bytes");
+    expect(io.out).toContain("HDU 1  IMAGE 'YMAP'  7 × 5  BITPIX -32");
+    expect(io.out).toContain("WCS TAN ICRS");
+    expect(io.out).toContain("pixel 0.5000 × 0.5000 arcmin");
+    expect(io.out).toContain("HDU 2  BINTABLE 'SOURCES'  3 rows of 22 bytes");
   });
 
   it("reports a cube that is not one map inside its HDU entry without failing the file", async () => {
     expect(await run(["inspect", "--json", `${FIXTURES}cube_3d_three_planes.fits`])).toBe(0);
-    const h = (JSON.parse(out) as Json).files[0]!.hdus![0]!;
+    const h = (JSON.parse(io.out) as Json).files[0]!.hdus![0]!;
     expect(h.shape).toEqual([7, 5, 3]);
     expect(h.error).toMatch(/NAXIS3 = 3/);
   });
@@ -118,10 +102,10 @@ describe("umbra inspect", () => {
   it("a file that is not FITS gives one line on stderr naming it and exit code 2, the other files are still described", async () => {
     const bad = `${FIXTURES}README.md`;
     expect(await run(["inspect", "--json", bad, `${FIXTURES}u16.fits`])).toBe(2);
-    expect(err.trim().split("\n")).toHaveLength(1);
-    expect(err).toContain("README.md");
-    expect(err).toMatch(/not a FITS file/);
-    const j = JSON.parse(out) as Json;
+    expect(io.err.trim().split("\n")).toHaveLength(1);
+    expect(io.err).toContain("README.md");
+    expect(io.err).toMatch(/not a FITS file/);
+    const j = JSON.parse(io.out) as Json;
     expect(j.files[0]!.error!.code).toBe("BAD_FITS");
     expect(j.files[1]!.hdus![0]!.stats!.max).toBe(65535);
   });

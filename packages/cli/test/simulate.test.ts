@@ -2,27 +2,11 @@
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { afterAll, describe, expect, it } from "vitest";
 import { run } from "../src/main.js";
+import { captureOutputEachTest } from "./capture.js";
 
-let out = "";
-let err = "";
-beforeEach(() => {
-  out = "";
-  err = "";
-  vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => {
-    out += String(s);
-    return true;
-  });
-  vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => {
-    err += String(s);
-    return true;
-  });
-});
-afterEach(() => {
-  vi.restoreAllMocks();
-  process.exitCode = undefined;
-});
+const io = captureOutputEachTest();
 
 const dir = mkdtempSync(join(tmpdir(), "umbra-cli-sim-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -46,7 +30,7 @@ describe("umbra simulate", () => {
   it("writes maps, manifest, truth and provenance, and says so", async () => {
     const outDir = join(dir, "a");
     expect(await run(["simulate", "--scenario", join(dir, "scenario.json"), "--seed", "5", "--out", outDir])).toBe(0);
-    expect(out).toContain("simulated 'cli-test' seed 5");
+    expect(io.out).toContain("simulated 'cli-test' seed 5");
     const files = readdirSync(outDir).sort();
     expect(files).toEqual(["bands.json", "f090.fits", "f090_ivar.fits", "f150.fits", "f150_bandpass.txt", "f150_ivar.fits", "provenance.json", "truth_clusters.csv", "truth_radio.csv"]);
     const manifest = JSON.parse(readFileSync(join(outDir, "bands.json"), "utf8"));
@@ -63,14 +47,14 @@ describe("umbra simulate", () => {
   it("exits 2 with every scenario problem listed", async () => {
     writeFileSync(join(dir, "bad.json"), JSON.stringify({ ...scenario, field: { nx: 4, ny: 64, pixelArcmin: 0 } }));
     expect(await run(["simulate", "--scenario", join(dir, "bad.json"), "--out", join(dir, "x")])).toBe(2);
-    expect(err).toContain("bad.json");
-    expect(err).toContain("field.nx");
-    expect(err).toContain("field.pixelArcmin");
+    expect(io.err).toContain("bad.json");
+    expect(io.err).toContain("field.nx");
+    expect(io.err).toContain("field.pixelArcmin");
   });
   it("exits 2 for a missing scenario file and for a bad seed", async () => {
     expect(await run(["simulate", "--scenario", join(dir, "none.json"), "--out", join(dir, "y")])).toBe(2);
-    expect(err).toContain("none.json");
+    expect(io.err).toContain("none.json");
     expect(await run(["simulate", "--scenario", join(dir, "scenario.json"), "--seed", "1.5", "--out", join(dir, "z")])).toBe(2);
-    expect(err).toContain("--seed");
+    expect(io.err).toContain("--seed");
   });
 });

@@ -36,6 +36,8 @@ describe("umbra simulate", () => {
     const manifest = JSON.parse(readFileSync(join(outDir, "bands.json"), "utf8"));
     expect(manifest.bands[1]).toMatchObject({ name: "f150", map: "f150.fits", bandpass: "f150_bandpass.txt", unit: "K_RJ", ivar: "f150_ivar.fits" });
     expect(readFileSync(join(outDir, "truth_clusters.csv"), "utf8").split("\n")[1]).toMatch(/^CLI-C1,10,-10,/);
+    // a non-relativistic sky with a truth catalogue that carries temperatures: the user is told how to measure it
+    expect(io.err).toMatch(/painted non-relativistic.*--no-relativistic/);
   });
   it("is reproducible: the same seed twice gives identical files", async () => {
     const a = join(dir, "r1");

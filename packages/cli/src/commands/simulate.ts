@@ -39,6 +39,7 @@ export async function simulateAction(o: SimulateCliOptions): Promise<string[]> {
     clustersInField: inField,
     expectedClusters: field.expectedClusterCount,
     radioSources: field.radioSources.length,
+    relativisticTsz: field.scenario.sky.clusters?.relativistic === true,
     manifest: written.manifestPath,
     files: written.files,
   };
@@ -50,6 +51,11 @@ export async function simulateAction(o: SimulateCliOptions): Promise<string[]> {
         `clusters: ${summary.clusters}${exp}, ${inField} in the field; radio sources: ${summary.radioSources}\n` +
         `manifest: ${written.manifestPath}\n`,
     );
+  }
+  if (field.clusters.length > 0 && !summary.relativisticTsz) {
+    // the truth catalogue carries te_kev (and z, m500_msun, from which measure derives kTe): measuring
+    // this non-relativistic sky with it would apply the relativistic spectrum
+    process.stderr.write("umbra: note: tSZ painted non-relativistic (scenario sky.clusters.relativistic is false); measure this field with --no-relativistic\n");
   }
   return written.files;
 }

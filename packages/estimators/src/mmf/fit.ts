@@ -15,6 +15,7 @@
  */
 import { Matrix, inverse } from "ml-matrix";
 import { UmbraError } from "@umbra/core";
+import { shiftPhases } from "@umbra/maps";
 import type { FilterBank } from "./bank.js";
 import { profileAt, type ProfileTable } from "./profile.js";
 
@@ -87,17 +88,9 @@ export function fitAtPosition(
   const { nx, ny } = bank.geometry;
   const { kxIndex, kyIndex, hermitianWeight, modeCount } = bank.layout;
   const { ex, ey } = scratch;
-  for (let k = 0; k <= nx >> 1; k++) {
-    const a = (2 * Math.PI * k * px) / nx;
-    ex[2 * k] = Math.cos(a);
-    ex[2 * k + 1] = Math.sin(a);
-  }
-  for (let k = 0; k < ny; k++) {
-    const ks = k <= ny >> 1 ? k : k - ny;
-    const a = (2 * Math.PI * ks * py) / ny;
-    ey[2 * k] = Math.cos(a);
-    ey[2 * k + 1] = Math.sin(a);
-  }
+  // conjugate shift phases: the fit correlates the data with the template centred at (px, py)
+  shiftPhases(nx, px, 1, "half", ex);
+  shiftPhases(ny, py, 1, "full", ey);
   // with `combined` (D_c = Σ_j A_jc E_j per component, see combineSeds) the sum runs over
   // components instead of bands
   const W = combined ?? bank.whitened;

@@ -4,6 +4,7 @@
  * amplitudes. Used to remove the clusters before re-estimating the covariance (Zubeldia et al.
  * 2023, MNRAS 522, 5123, sec. 3: iterative noise estimation).
  */
+import { shiftPhases } from "@umbra/maps";
 import type { FilterBank } from "../mmf/bank.js";
 import { profileAt, type ProfileTable } from "../mmf/profile.js";
 
@@ -35,17 +36,8 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
   for (const c of clusters) {
     const acc = c.shared !== undefined ? (groups.get(c.shared.sed) ?? (groups.size < 8 ? new Float64Array(2 * modeCount) : null)) : null;
     if (acc !== null && c.shared !== undefined) groups.set(c.shared.sed, acc);
-    for (let k = 0; k <= nx >> 1; k++) {
-      const a = (-2 * Math.PI * k * c.px) / nx;
-      ex[2 * k] = Math.cos(a);
-      ex[2 * k + 1] = Math.sin(a);
-    }
-    for (let k = 0; k < ny; k++) {
-      const ks = k <= ny >> 1 ? k : k - ny;
-      const a = (-2 * Math.PI * ks * c.py) / ny;
-      ey[2 * k] = Math.cos(a);
-      ey[2 * k + 1] = Math.sin(a);
-    }
+    shiftPhases(nx, c.px, -1, "half", ex);
+    shiftPhases(ny, c.py, -1, "full", ey);
     const th2 = (sign * c.thetaRad * c.thetaRad) / bank.pixelSr;
     if (acc !== null && c.shared !== undefined) {
       const a = th2 * c.shared.amplitude;

@@ -10,3 +10,4 @@ export { apodisationWindow, apodiseMask, taper1d, windowMoment, windowPowerFract
 export type { WindowKind } from "./apodisation.js";
 export { distanceToRemoved } from "./distance-transform.js";
 export { createRfft2PlanFloat32, float32SizeProblem } from "./rfft2-f32.js";
+export { shiftPhases } from "./shift.js";

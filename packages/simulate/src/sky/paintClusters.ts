@@ -8,7 +8,7 @@
  */
 import { RAD_PER_ARCMIN } from "@umbra/core";
 import { fourierShape, gnfwA10, profileFourierAtEll } from "@umbra/clusters";
-import type { SpectrumLayout } from "@umbra/maps";
+import { shiftPhases, type SpectrumLayout } from "@umbra/maps";
 import type { TrueCluster } from "./clusterTruth.js";
 
 /** Number of nodes of each cluster's radial ℓ table (linear interpolation between them). */
@@ -38,10 +38,8 @@ export function paintClusters(
   const table = new Float64Array(TABLE_NODES);
   const { nx, ny, kxIndex, kyIndex, modeCount } = layout;
   const nkx = (nx >> 1) + 1;
-  const exRe = new Float64Array(nkx);
-  const exIm = new Float64Array(nkx);
-  const eyRe = new Float64Array(ny);
-  const eyIm = new Float64Array(ny);
+  const ex = new Float64Array(2 * nkx);
+  const ey = new Float64Array(2 * ny);
   const nb = spectra.length;
   const amp = new Float64Array(nb);
   // per-mode table position and wrapped ky index, shared by every cluster
@@ -65,31 +63,22 @@ export function paintClusters(
     profileFourierAtEll(shape, cl.theta500Arcmin * RAD_PER_ARCMIN, grid, table);
     const scale = cl.y0 / pixelSr;
     for (let b = 0; b < nb; b++) amp[b] = amplitudes[c]![b]! * scale;
-    for (let k = 0; k < nkx; k++) {
-      const ph = (-2 * Math.PI * k * cl.xPix) / nx;
-      exRe[k] = Math.cos(ph);
-      exIm[k] = Math.sin(ph);
-    }
-    for (let k = 0; k < ny; k++) {
-      const signed = k < (ny + 1) >> 1 ? k : k - ny; // numpy fftfreq order: the Nyquist row is −ny/2
-      const ph = (-2 * Math.PI * signed * cl.yPix) / ny;
-      eyRe[k] = Math.cos(ph);
-      eyIm[k] = Math.sin(ph);
-    }
+    shiftPhases(nx, cl.xPix, -1, "half", ex);
+    shiftPhases(ny, cl.yPix, -1, "full", ey);
     const a0 = amp[0]!;
     const a1 = nb > 1 ? amp[1]! : 0;
     if (rowMajor && nb <= 2) {
       // row-major half plane (m = iy·nkx + ix): the y phase is constant along a row
       for (let iy = 0; iy < ny; iy++) {
-        const br = eyRe[kyRow[iy * nkx]!]!;
-        const bi = eyIm[kyRow[iy * nkx]!]!;
+        const br = ey[2 * kyRow[iy * nkx]!]!;
+        const bi = ey[2 * kyRow[iy * nkx]! + 1]!;
         const base = iy * nkx;
         for (let ix = 0; ix < nkx; ix++) {
           const m = base + ix;
           const j = node[m]!;
           const f = table[j]! + frac[m]! * (table[j + 1]! - table[j]!);
-          const ar = exRe[ix]!;
-          const ai = exIm[ix]!;
+          const ar = ex[2 * ix]!;
+          const ai = ex[2 * ix + 1]!;
           const re = f * (ar * br - ai * bi);
           const im = f * (ar * bi + ai * br);
           s0[2 * m] = s0[2 * m]! + a0 * re;
@@ -107,10 +96,10 @@ export function paintClusters(
       const f = table[j]! + frac[m]! * (table[j + 1]! - table[j]!);
       const kx = kxIndex[m]!;
       const ky = kyRow[m]!;
-      const ar = exRe[kx]!;
-      const ai = exIm[kx]!;
-      const br = eyRe[ky]!;
-      const bi = eyIm[ky]!;
+      const ar = ex[2 * kx]!;
+      const ai = ex[2 * kx + 1]!;
+      const br = ey[2 * ky]!;
+      const bi = ey[2 * ky + 1]!;
       const re = f * (ar * br - ai * bi);
       const im = f * (ar * bi + ai * br);
       for (let b = 0; b < nb; b++) {

@@ -16,32 +16,11 @@ import {
   profileFourierAtEll,
   projectedShape,
 } from "../../packages/clusters/src/index.js";
+import { timeRuns, type RateBenchRow } from "./timing.js";
 
-/** One benchmark result: what was timed, the median seconds per run, and a derived rate. */
-export interface ClustersBenchRow {
-  name: string;
-  secondsPerRun: number;
-  runs: number;
-  perSecond?: number;
-  items?: number;
-}
+export type ClustersBenchRow = RateBenchRow;
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 === 1 ? (s[(n - 1) / 2] as number) : 0.5 * ((s[n / 2 - 1] as number) + (s[n / 2] as number));
-}
 
-function time(runs: number, f: () => void, warm = true): number {
-  if (warm) f();
-  const t: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t0 = performance.now();
-    f();
-    t.push((performance.now() - t0) / 1000);
-  }
-  return median(t);
-}
 
 /** Run the cluster-model benchmarks; `quick` uses fewer runs and items. */
 export async function benchClusters(options: { quick?: boolean } = {}): Promise<ClustersBenchRow[]> {
@@ -52,7 +31,7 @@ export async function benchClusters(options: { quick?: boolean } = {}): Promise<
   for (const name of ["concordance", "cmb2018"] as const) {
     const c = cosmologyPreset(name);
     const n = quick ? 200 : 2000;
-    const t = time(runs, () => {
+    const t = timeRuns(runs, () => {
       for (let i = 0; i < n; i++) c.angularDiameterDistanceMpc(0.05 + (2 * i) / n);
     });
     rows.push({ name: `D_A(z) single calls, ${name}`, secondsPerRun: t, runs, perSecond: n / t, items: n });
@@ -60,7 +39,7 @@ export async function benchClusters(options: { quick?: boolean } = {}): Promise<
 
   // a fresh profile object per run defeats the table cache (its key differs by the mass factor)
   let k = 0;
-  const tBuild = time(quick ? 1 : 3, () => {
+  const tBuild = timeRuns(quick ? 1 : 3, () => {
     fourierShape(gnfwA10({ m500Msun: 3e14 + ++k }));
   }, false);
   rows.push({ name: "A10 Fourier table build (640 nodes, q <= 1000)", secondsPerRun: tBuild, runs: quick ? 1 : 3 });
@@ -71,14 +50,14 @@ export async function benchClusters(options: { quick?: boolean } = {}): Promise<
   for (let i = 0; i < nEll; i++) ells[i] = 10 + i * 20;
   const out = new Float64Array(nEll);
   const nSizes = quick ? 1000 : 10_000;
-  const tTemplates = time(quick ? 1 : 3, () => {
+  const tTemplates = timeRuns(quick ? 1 : 3, () => {
     for (let s = 0; s < nSizes; s++) profileFourierAtEll(shape, 1e-4 * (1 + s / 100), ells, out);
   });
   rows.push({ name: `template FTs for ${nSizes} sizes x ${nEll} multipoles`, secondsPerRun: tTemplates, runs: quick ? 1 : 3, perSecond: nSizes / tTemplates, items: nSizes });
 
   const xs = new Float64Array(512);
   for (let i = 0; i < 512; i++) xs[i] = (5 * i) / 512;
-  const tProj = time(runs, () => {
+  const tProj = timeRuns(runs, () => {
     projectedShape(gnfwA10(), xs);
   });
   rows.push({ name: "A10 projected profile at 512 radii", secondsPerRun: tProj, runs, perSecond: 512 / tProj, items: 512 });
@@ -86,7 +65,7 @@ export async function benchClusters(options: { quick?: boolean } = {}): Promise<
   const c = cosmologyPreset("concordance");
   const rel = planck2014YmRelation();
   const nInv = quick ? 100 : 1000;
-  const tInv = time(quick ? 1 : 3, () => {
+  const tInv = timeRuns(quick ? 1 : 3, () => {
     for (let i = 0; i < nInv; i++) m500FromY({ yArcmin2: 1e-3 * (1 + i / nInv), yErrArcmin2: 2e-4, z: 0.2 + i / nInv, cosmo: c, relation: rel });
   });
   rows.push({ name: `Y -> M500 inversions (fixed Y, with error bounds)`, secondsPerRun: tInv, runs: quick ? 1 : 3, perSecond: nInv / tInv, items: nInv });

@@ -8,6 +8,7 @@
  */
 import { pathToFileURL } from "node:url";
 import { createRfft2PlanFloat32, getRfft2Plan } from "../../packages/maps/src/fourier/index.js";
+import { median } from "./timing.js";
 
 /** One benchmark result. */
 export interface FftBenchRow {
@@ -28,11 +29,6 @@ const SHAPES: [number, number][] = [
   [900, 600], // nx, ny
 ];
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 === 1 ? (s[(n - 1) / 2] as number) : 0.5 * ((s[n / 2 - 1] as number) + (s[n / 2] as number));
-}
 
 function fillRandom(a: Float64Array | Float32Array, seed: number): void {
   let s = seed >>> 0;
@@ -45,6 +41,22 @@ function fillRandom(a: Float64Array | Float32Array, seed: number): void {
 function runsFor(nx: number, ny: number, quick: boolean): number {
   if (quick) return 3;
   return nx * ny >= 4096 * 4096 ? 5 : 11;
+}
+
+/** Median wall-clock and process-CPU seconds of `runs` calls of `roundTrip` after one warm-up call. */
+function timeRoundTrip(roundTrip: () => void, runs: number): { wall: number; cpu: number } {
+  roundTrip();
+  const times: number[] = [];
+  const cpu: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    const c0 = process.cpuUsage();
+    const t0 = performance.now();
+    roundTrip();
+    times.push((performance.now() - t0) / 1000);
+    const c = process.cpuUsage(c0);
+    cpu.push((c.user + c.system) / 1e6);
+  }
+  return { wall: median(times), cpu: median(cpu) };
 }
 
 /** Time the float64 and float32 round trips; `quick` skips 4096² and uses 3 runs. */
@@ -60,20 +72,11 @@ export async function benchFft(options: { quick?: boolean } = {}): Promise<FftBe
       fillRandom(map, 1);
       const spec = new Float64Array(plan.layout.spectrumLength);
       const back = new Float64Array(nx * ny);
-      plan.forward(map, spec);
-      plan.inverse(spec, back);
-      const times: number[] = [];
-      const cpu: number[] = [];
-      for (let r = 0; r < runs; r++) {
-        const c0 = process.cpuUsage();
-        const t0 = performance.now();
+      const t = timeRoundTrip(() => {
         plan.forward(map, spec);
         plan.inverse(spec, back);
-        times.push((performance.now() - t0) / 1000);
-        const c = process.cpuUsage(c0);
-        cpu.push((c.user + c.system) / 1e6);
-      }
-      rows.push({ backend: "f64", nx, ny, roundTripSeconds: median(times), roundTripCpuSeconds: median(cpu), runs });
+      }, runs);
+      rows.push({ backend: "f64", nx, ny, roundTripSeconds: t.wall, roundTripCpuSeconds: t.cpu, runs });
     }
     try {
       const plan = await createRfft2PlanFloat32(nx, ny);
@@ -81,21 +84,12 @@ export async function benchFft(options: { quick?: boolean } = {}): Promise<FftBe
       fillRandom(map, 1);
       const spec = new Float32Array(plan.layout.spectrumLength);
       const back = new Float32Array(nx * ny);
-      plan.forward(map, spec);
-      plan.inverse(spec, back);
-      const times: number[] = [];
-      const cpu: number[] = [];
-      for (let r = 0; r < runs; r++) {
-        const c0 = process.cpuUsage();
-        const t0 = performance.now();
+      const t = timeRoundTrip(() => {
         plan.forward(map, spec);
         plan.inverse(spec, back);
-        times.push((performance.now() - t0) / 1000);
-        const c = process.cpuUsage(c0);
-        cpu.push((c.user + c.system) / 1e6);
-      }
+      }, runs);
       plan.dispose();
-      rows.push({ backend: "f32", nx, ny, roundTripSeconds: median(times), roundTripCpuSeconds: median(cpu), runs });
+      rows.push({ backend: "f32", nx, ny, roundTripSeconds: t.wall, roundTripCpuSeconds: t.cpu, runs });
     } catch {
       // the float32 path does not take this shape (pffft size rules): no row
     }

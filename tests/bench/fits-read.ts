@@ -15,6 +15,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { readFitsImage, writeFits } from "../../packages/maps/src/fits/index.js";
+import { median } from "./timing.js";
 
 /** One benchmark result. */
 export interface FitsReadBenchRow {
@@ -33,11 +34,6 @@ export interface FitsReadBenchRow {
   runs: number;
 }
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 === 1 ? (s[(n - 1) / 2] as number) : 0.5 * ((s[n / 2 - 1] as number) + (s[n / 2] as number));
-}
 
 interface AstropyTimes {
   data: { first_ms: number; median_ms: number };

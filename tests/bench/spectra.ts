@@ -14,33 +14,11 @@ import {
   tszResponseRelativistic,
 } from "../../packages/spectra/src/index.js";
 import type { BandSpec } from "../../packages/spectra/src/index.js";
+import { timeRuns, type RateBenchRow } from "./timing.js";
 
-/** One benchmark result: what was timed, the median seconds per run, and a derived rate. */
-export interface SpectraBenchRow {
-  name: string;
-  secondsPerRun: number;
-  runs: number;
-  /** Items per second where that makes sense (pairs, clusters). */
-  perSecond?: number;
-  items?: number;
-}
+export type SpectraBenchRow = RateBenchRow;
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 === 1 ? (s[(n - 1) / 2] as number) : 0.5 * ((s[n / 2 - 1] as number) + (s[n / 2] as number));
-}
 
-function time(runs: number, f: () => void): number {
-  f(); // warm-up
-  const t: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t0 = performance.now();
-    f();
-    t.push((performance.now() - t0) / 1000);
-  }
-  return median(t);
-}
 
 function lcg(seed: number): () => number {
   let s = seed >>> 0;
@@ -68,12 +46,12 @@ export async function benchSpectra(options: { quick?: boolean } = {}): Promise<S
 
   // a new kTe every call, so the scattering kernel is rebuilt (the exact evaluator reuses the last one)
   let kteStep = 0;
-  const tExact = time(runs, () => {
+  const tExact = timeRuns(runs, () => {
     tszResponseRelativistic(353, 12.5 + 1e-3 * kteStep++);
   });
   rows.push({ name: "exact relativistic tSZ, one (frequency, kTe) pair, new kTe", secondsPerRun: tExact, runs, perSecond: 1 / tExact, items: 1 });
   let fStep = 0;
-  const tExactSame = time(runs, () => {
+  const tExactSame = timeRuns(runs, () => {
     tszResponseRelativistic(353 + 1e-3 * fStep++, 12.5);
   });
   rows.push({ name: "exact relativistic tSZ, another frequency at the same kTe", secondsPerRun: tExactSame, runs, perSecond: 1 / tExactSame, items: 1 });
@@ -84,7 +62,7 @@ export async function benchSpectra(options: { quick?: boolean } = {}): Promise<S
   const t = Float64Array.from({ length: nPairs }, () => 50 * rnd());
   const out = new Float64Array(nPairs);
   const fast = createFastRelativisticTsz();
-  const tFast = time(runs, () => {
+  const tFast = timeRuns(runs, () => {
     fast.responseMany(f, t, out);
   });
   rows.push({ name: "fast relativistic tSZ, random pairs (responseMany)", secondsPerRun: tFast, runs, perSecond: nPairs / tFast, items: nPairs });
@@ -99,7 +77,7 @@ export async function benchSpectra(options: { quick?: boolean } = {}): Promise<S
     ["delta", deltaBands],
     ["101-sample tabulated", tabBands],
   ] as const) {
-    const tBuild = time(runs, () => {
+    const tBuild = timeRuns(runs, () => {
       const ev = bands.map((b) => createTszBandResponse(b, "K_CMB"));
       for (let c = 0; c < nClusters; c++) {
         const k = kte[c] as number;
@@ -108,7 +86,7 @@ export async function benchSpectra(options: { quick?: boolean } = {}): Promise<S
     });
     rows.push({ name: `6-band tSZ mixing vectors for 10^4 clusters, ${label} bands (createTszBandResponse)`, secondsPerRun: tBuild, runs, perSecond: nClusters / tBuild, items: nClusters });
   }
-  const tGeneric = time(quick ? 1 : 3, () => {
+  const tGeneric = timeRuns(quick ? 1 : 3, () => {
     for (let c = 0; c < nClusters; c++) {
       for (let b = 0; b < 6; b++) mix[c * 6 + b] = componentResponse({ kind: "tsz", kTeKeV: kte[c] as number }, deltaBands[b] as BandSpec, "K_CMB");
     }

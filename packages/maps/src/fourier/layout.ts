@@ -14,16 +14,55 @@ export function halfWidth(nx: number): number {
 
 /** Per-mode arrays of the row-major half-plane layout (mode m = iy·nh + ix). */
 export function makeRowMajorLayout(nx: number, ny: number): SpectrumLayout {
-  return makeLayout(nx, ny, false);
+  return new HalfPlaneLayout(nx, ny, false);
 }
 
 /** Per-mode arrays of the transposed half-plane layout (mode m = ix·ny + iy). */
 export function makeTransposedLayout(nx: number, ny: number): SpectrumLayout {
-  return makeLayout(nx, ny, true);
+  return new HalfPlaneLayout(nx, ny, true);
+}
+
+/**
+ * A half-plane layout whose per-mode arrays (16 bytes per mode: as much as a spectrum buffer) are
+ * built on first use, so a plan used only to transform holds none of them. The arrays, once built,
+ * are the same objects on every access.
+ */
+class HalfPlaneLayout implements SpectrumLayout {
+  readonly nx: number;
+  readonly ny: number;
+  readonly modeCount: number;
+  readonly spectrumLength: number;
+  private readonly transposed: boolean;
+  private arrays: { kxIndex: Int32Array; kyIndex: Int32Array; hermitianWeight: Float64Array } | null = null;
+
+  constructor(nx: number, ny: number, transposed: boolean) {
+    this.nx = nx;
+    this.ny = ny;
+    this.modeCount = halfWidth(nx) * ny;
+    this.spectrumLength = 2 * this.modeCount;
+    this.transposed = transposed;
+  }
+
+  get kxIndex(): Int32Array {
+    return this.built().kxIndex;
+  }
+
+  get kyIndex(): Int32Array {
+    return this.built().kyIndex;
+  }
+
+  get hermitianWeight(): Float64Array {
+    return this.built().hermitianWeight;
+  }
+
+  private built(): { kxIndex: Int32Array; kyIndex: Int32Array; hermitianWeight: Float64Array } {
+    if (this.arrays === null) this.arrays = buildModeArrays(this.nx, this.ny, this.transposed);
+    return this.arrays;
+  }
 }
 
 /** Build the per-mode arrays (signed indices, Hermitian weights) of a half-plane layout. */
-function makeLayout(nx: number, ny: number, transposed: boolean): SpectrumLayout {
+function buildModeArrays(nx: number, ny: number, transposed: boolean): { kxIndex: Int32Array; kyIndex: Int32Array; hermitianWeight: Float64Array } {
   const nh = halfWidth(nx);
   const modeCount = nh * ny;
   const kxIndex = new Int32Array(modeCount);
@@ -40,5 +79,5 @@ function makeLayout(nx: number, ny: number, transposed: boolean): SpectrumLayout
       hermitianWeight[m] = w;
     }
   }
-  return Object.freeze({ nx, ny, modeCount, spectrumLength: 2 * modeCount, kxIndex, kyIndex, hermitianWeight });
+  return { kxIndex, kyIndex, hermitianWeight };
 }

@@ -311,7 +311,7 @@ function pass4(n: number, ns: number, L: number, x: Float64Array, xo: number, xe
 }
 
 function pass3(n: number, ns: number, L: number, x: Float64Array, xo: number, xes: number, y: Float64Array, yo: number, yes: number, tw: Float64Array, to: number, dir: number): void {
-  const m = n / 3;
+  const m = (n / 3) | 0;
   const L2 = 2 * L;
   const sx = m * xes;
   const sy = ns * yes;
@@ -356,7 +356,7 @@ function pass3(n: number, ns: number, L: number, x: Float64Array, xo: number, xe
 }
 
 function pass5(n: number, ns: number, L: number, x: Float64Array, xo: number, xes: number, y: Float64Array, yo: number, yes: number, tw: Float64Array, to: number, dir: number): void {
-  const m = n / 5;
+  const m = (n / 5) | 0;
   const L2 = 2 * L;
   const sx = m * xes;
   const sy = ns * yes;

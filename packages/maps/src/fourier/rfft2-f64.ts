@@ -8,12 +8,16 @@
  * and transformed together by the batched kernel (mixed-radix.ts). The half rows land in the
  * spectrum row by row. Columns are then transformed `colLanes` at a time along y, the kernel's first
  * stage reading straight from the spectrum rows and its last stage writing back into them.
- * Inverse: columns go from the spectrum into the plan's one scratch buffer; then row pairs are rebuilt as Z_k = A_k + i·B_k over the full k range (Hermitian
- * extension; the imaginary parts of the kx = 0 and kx = nx/2 columns are dropped, as numpy's
- * irfft does), inverse-transformed and unpacked with the 1/(nx·ny) factor.
+ * Inverse: the columns are transformed from the spectrum straight into the output map, whose rows
+ * then hold packed half rows (nx numbers: the kx = 0 and, for even nx, kx = nx/2 values keep only
+ * their real parts, since numpy's irfft ignores the imaginary parts there; the trick of packing the
+ * two real end points into one slot is common practice in real FFTs, e.g. Press et al. 2007 sec.
+ * 12.3). Row pairs are then rebuilt as Z_k = A_k + i·B_k over the full k range (Hermitian
+ * extension), inverse-transformed and written back over the same rows with the 1/(nx·ny) factor.
  *
- * Memory: the caller's map and spectrum, one scratch of spectrumLength doubles (allocated on the
- * first inverse), and lane buffers of O((nx + ny)·lanes) doubles. No allocation per call.
+ * Memory: the caller's map and spectrum, lane buffers of O((nx + ny)·lanes) doubles and one column
+ * (2·ny doubles); no full-size scratch, and no allocation per call. The caller's spectrum is never
+ * modified by the inverse.
  */
 import { UmbraError } from "@umbra/core";
 import { makeLaneFft } from "./bluestein.js";
@@ -57,7 +61,7 @@ export class Rfft2PlanF64 implements Rfft2Plan {
   private readonly rowFft: LaneFft;
   private readonly colFft: LaneFft;
   private readonly rowBuf: Float64Array;
-  private scratch: Float64Array | null = null;
+  private readonly edgeBuf: Float64Array; // one column (ny complex) for kx = 0 and nx/2 in the inverse
 
   /** `laneDoubles` (internal tuning knob): target size of a lane buffer in doubles. */
   constructor(nx: number, ny: number, laneDoubles = LANE_DOUBLES) {
@@ -72,6 +76,7 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     this.rowFft = makeLaneFft(nx, this.rowLanes);
     this.colFft = makeLaneFft(ny, this.colLanes);
     this.rowBuf = new Float64Array(2 * nx * this.rowLanes);
+    this.edgeBuf = new Float64Array(2 * ny);
   }
 
   forward(map: Float64Array, spectrum: Float64Array): void {
@@ -138,60 +143,86 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     const { nx, ny, nh } = this;
     checkLength("spectrum", spectrum, this.layout.spectrumLength);
     checkLength("map", map, nx * ny);
-    if (this.scratch === null) this.scratch = new Float64Array(this.layout.spectrumLength);
-    const s = this.scratch;
-    this.columns(spectrum, s, 1);
+    this.columnsIntoMap(spectrum, map);
     const buf = this.rowBuf;
-    const rowLen = 2 * nh;
     const scale = 1 / (nx * ny);
-    const nyq = nx % 2 === 0 ? nx / 2 : -1;
+    const even = nx % 2 === 0;
+    const lastInner = even ? nh - 2 : nh - 1; // last kx with a full complex value in a packed row
+    const off = even ? 0 : -1; // packed row: A_k (1 ≤ k ≤ lastInner) at 2k + off
     for (let y0 = 0; y0 < ny; y0 += 2 * this.rowLanes) {
       const pairs = Math.min(this.rowLanes, Math.ceil((ny - y0) / 2));
       const L2 = 2 * pairs;
       for (let v = 0; v < pairs; v++) {
         const ya = y0 + 2 * v;
-        const hasB = ya + 1 < ny;
-        const sa = ya * rowLen;
-        const sb = sa + rowLen;
-        const off = 2 * v;
-        for (let k = 0; k < nh; k++) {
-          const ar = s[sa + 2 * k] as number;
-          let ai = s[sa + 2 * k + 1] as number;
+        const ra = ya * nx;
+        const rb = ya + 1 < ny ? ra + nx : -1;
+        const lane = 2 * v;
+        // Z_k = A_k + i·B_k and Z_{n−k} = conj(A_k) + i·conj(B_k); kx = 0 and nx/2 are real
+        const a0 = map[ra] as number;
+        const b0 = rb >= 0 ? (map[rb] as number) : 0;
+        buf[lane] = a0;
+        buf[lane + 1] = b0;
+        if (even && nh > 1) {
+          const i = (nh - 1) * L2 + lane;
+          buf[i] = map[ra + 1] as number;
+          buf[i + 1] = rb >= 0 ? (map[rb + 1] as number) : 0;
+        }
+        for (let k = 1; k <= lastInner; k++) {
+          const p = 2 * k + off;
+          const ar = map[ra + p] as number;
+          const ai = map[ra + p + 1] as number;
           let br = 0;
           let bi = 0;
-          if (hasB) {
-            br = s[sb + 2 * k] as number;
-            bi = s[sb + 2 * k + 1] as number;
+          if (rb >= 0) {
+            br = map[rb + p] as number;
+            bi = map[rb + p + 1] as number;
           }
-          if (k === 0 || k === nyq) {
-            ai = 0;
-            bi = 0;
-          }
-          // Z_k = A + iB ; Z_{n−k} = conj(A) + i conj(B)
-          const i = k * L2 + off;
+          const i = k * L2 + lane;
           buf[i] = ar - bi;
           buf[i + 1] = ai + br;
-          if (k > 0 && k !== nyq) {
-            const j = (nx - k) * L2 + off;
-            buf[j] = ar + bi;
-            buf[j + 1] = br - ai;
-          }
+          const j = (nx - k) * L2 + lane;
+          buf[j] = ar + bi;
+          buf[j + 1] = br - ai;
         }
       }
       this.rowFft.transform(buf, 0, L2, buf, 0, L2, pairs, 1);
       for (let v = 0; v < pairs; v++) {
         const ra = (y0 + 2 * v) * nx;
-        const off = 2 * v;
+        const lane = 2 * v;
         if (y0 + 2 * v + 1 < ny) {
           const rb = ra + nx;
-          for (let x = 0, o = off; x < nx; x++, o += L2) {
+          for (let x = 0, o = lane; x < nx; x++, o += L2) {
             map[ra + x] = (buf[o] as number) * scale;
             map[rb + x] = (buf[o + 1] as number) * scale;
           }
         } else {
-          for (let x = 0, o = off; x < nx; x++, o += L2) map[ra + x] = (buf[o] as number) * scale;
+          for (let x = 0, o = lane; x < nx; x++, o += L2) map[ra + x] = (buf[o] as number) * scale;
         }
       }
+    }
+  }
+
+  /**
+   * Inverse column pass from the spectrum into `map`, whose rows then hold the packed half rows
+   * (nx numbers each): [Re A_0, Re A_{nx/2}, A_1, …, A_{nx/2−1}] for even nx, [Re A_0, A_1, …,
+   * A_{(nx−1)/2}] for odd nx. The dropped imaginary parts are the ones numpy's irfft ignores.
+   */
+  private columnsIntoMap(spectrum: Float64Array, map: Float64Array): void {
+    const { nx, ny, nh } = this;
+    const rowLen = 2 * nh;
+    const even = nx % 2 === 0;
+    const lastInner = even ? nh - 2 : nh - 1;
+    const off = even ? 0 : -1;
+    for (let k0 = 1; k0 <= lastInner; k0 += this.colLanes) {
+      const lanes = Math.min(this.colLanes, lastInner + 1 - k0);
+      this.colFft.transform(spectrum, 2 * k0, rowLen, map, 2 * k0 + off, nx, lanes, 1);
+    }
+    const edge = this.edgeBuf;
+    this.colFft.transform(spectrum, 0, rowLen, edge, 0, 2, 1, 1);
+    for (let y = 0; y < ny; y++) map[y * nx] = edge[2 * y] as number;
+    if (even && nh > 1) {
+      this.colFft.transform(spectrum, 2 * (nh - 1), rowLen, edge, 0, 2, 1, 1);
+      for (let y = 0; y < ny; y++) map[y * nx + 1] = edge[2 * y] as number;
     }
   }
 }
@@ -203,8 +234,9 @@ const planCache = new Map<string, Rfft2PlanF64>();
  * The cached float64 plan for an nx × ny map (nx pixels per row, ny rows), any nx, ny ≥ 1:
  * 5-smooth lengths use our mixed-radix kernel at their own size, others Bluestein; never padded.
  * The cache is per module instance, i.e. per thread (each worker gets its own plans), and keeps the
- * 8 most recently used shapes (a 4096² plan holds a 128 MB scratch after its first inverse; see
- * {@link clearRfft2PlanCache}). A plan holds scratch buffers, so it must not be shared across threads.
+ * 8 most recently used shapes (a plan holds only lane buffers, ~1.5 MB, plus its layout's per-mode
+ * arrays once a consumer asks for them, 16 bytes per mode; see {@link clearRfft2PlanCache}). A plan
+ * holds scratch buffers, so it must not be shared across threads.
  */
 export function getRfft2Plan(nx: number, ny: number): Rfft2Plan {
   checkDimension("nx", nx);
@@ -225,7 +257,7 @@ export function getRfft2Plan(nx: number, ny: number): Rfft2Plan {
   return plan;
 }
 
-/** Drop every cached float64 plan (frees their scratch buffers, e.g. after a run on large maps). */
+/** Drop every cached float64 plan (frees their lane buffers and layout arrays, e.g. after a run on large maps). */
 export function clearRfft2PlanCache(): void {
   planCache.clear();
 }

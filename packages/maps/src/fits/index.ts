@@ -4,14 +4,14 @@ export { makeHeader, parseHeaderAt, BLOCK_BYTES, CARD_BYTES } from "./header.js"
 export type { FitsHeader, ParsedHeader } from "./header.js";
 export { scanHdus } from "./layout.js";
 export type { HduLayout, HduType } from "./layout.js";
-export { decodePixels } from "./pixels.js";
+export { decodePixels, decodePixelsFloat32, FLOAT32_BITPIX } from "./pixels.js";
 export type { PixelScaling } from "./pixels.js";
 export { selectHdu, mapShape } from "./select.js";
 export type { HduSelector } from "./select.js";
 export { memorySource, fileSource } from "./source.js";
 export type { ByteSource } from "./source.js";
 export { readFitsImage, readFitsImageFromSource, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
-export type { ReadFitsOptions, FitsImage } from "./read.js";
+export type { ReadFitsOptions, ReadFitsFloat32Options, SkyMapFloat32, FitsImage } from "./read.js";
 export { formatCard, formatValueCard, formatCommentary, formatReal } from "./format.js";
 export type { CardInput, ValueCardInput, CommentaryCardInput } from "./format.js";
 export { encodeFits, writeFits, writeSkyMapFits, provenanceCards } from "./write.js";

@@ -1,12 +1,16 @@
 /**
- * Decoding an uncompressed FITS data array into Float64Array: big-endian integers and IEEE floats
- * (FITS 4.0 §5.2–5.3; IAU FITS Working Group 2016), the linear scaling physical = BZERO + BSCALE ·
- * stored (§4.4.2.5, eq. 3), and BLANK → NaN for integer arrays (§4.4.2.5, §5.2.2).
+ * Decoding an uncompressed FITS data array into Float64Array or Float32Array: big-endian integers and
+ * IEEE floats (FITS 4.0 §5.2–5.3; IAU FITS Working Group 2016), the linear scaling physical = BZERO +
+ * BSCALE · stored (§4.4.2.5, eq. 3), and BLANK → NaN for integer arrays (§4.4.2.5, §5.2.2).
  *
- * Speed: the stored bytes are read straight into the tail of the output buffer, byte-swapped there
- * with Node's native swap, and widened to float64 by a forward pass in place, so the only large
- * allocation is the output itself (see docs/fits-reader.md for why and the measurements).
+ * Speed (measurements in docs/fits-reader.md): the file is read in chunks of {@link SWAP_CHUNK_BYTES}
+ * so each chunk is byte-swapped (WebAssembly SIMD, ./byteswap.ts) and converted while it is still in
+ * the CPU cache; the float64 path reads each chunk into the swap scratch and widens from there into
+ * the output, the float32 path reads straight into the output's own bytes. Fresh outputs are
+ * allocated without zero-filling, since every element is written (or the read throws).
  */
+import { UmbraError, type ErrorPlace } from "@umbra/core";
+import { scratchBytes, swapInPlace, swapScratch, SWAP_CHUNK_BYTES, type SwapWidth } from "./byteswap.js";
 import type { ByteSource } from "./source.js";
 
 /** How stored values become physical ones. */
@@ -21,92 +25,152 @@ export interface PixelScaling {
   blank: bigint | null;
 }
 
-function swapped(bytes: Uint8Array, width: number): void {
-  const b = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.length);
-  if (width === 2) b.swap16();
-  else if (width === 4) b.swap32();
-  else if (width === 8) b.swap64();
+/** BITPIX values whose physical values {@link decodePixelsFloat32} can return (float32 holds every 8/16-bit integer). */
+export const FLOAT32_BITPIX: readonly number[] = [-32, 16, 8];
+
+/**
+ * An ArrayBuffer of `bytes` bytes that is not zero-filled (`Buffer.allocUnsafeSlow`: its own
+ * allocation, never a pooled slice). Only for outputs every byte of which is written before use.
+ */
+function uninitialised(bytes: number): ArrayBuffer {
+  const b = Buffer.allocUnsafeSlow(bytes);
+  if (b.byteOffset === 0 && b.buffer.byteLength === bytes && b.buffer instanceof ArrayBuffer) return b.buffer;
+  return new ArrayBuffer(bytes);
+}
+
+/** Fill `target` from `offset`, or throw BAD_FITS when the data end early (the layout scan should prevent it). */
+function readExactly(source: ByteSource, offset: number, target: Uint8Array, place: ErrorPlace): void {
+  const got = source.readInto(offset, target);
+  if (got < target.length) {
+    throw new UmbraError("BAD_FITS", `data unit ended after ${got} of ${target.length} bytes at byte ${offset}`, { ...place, keyword: "NAXIS" });
+  }
+}
+
+/** The stored integer matching BLANK as a JavaScript number, or NaN (never equal) when absent or out of range. */
+function blankNumber(blank: bigint | null, bitpix: number): number {
+  if (blank === null) return NaN;
+  const min = bitpix === 8 ? 0n : -(2n ** BigInt(bitpix - 1));
+  const max = bitpix === 8 ? 255n : 2n ** BigInt(bitpix - 1) - 1n;
+  return blank >= min && blank <= max ? Number(blank) : NaN;
 }
 
 /**
  * Decode `count` pixels stored from byte `dataOffset` of `source` into `out` (allocated when not
- * given; must hold ≥ `count` values). Returns the Float64Array of physical values
- * BZERO + BSCALE · stored, NaN where an integer equals BLANK. Assumes the bytes exist (the layout
- * scan checked the data size).
+ * given; must hold ≥ `count` values; `place` names the file in errors). Returns the Float64Array of physical values
+ * BZERO + BSCALE · stored (FITS 4.0 eq. 3), NaN where an integer equals BLANK (§4.4.2.5); float
+ * values (NaN included) pass through unchanged when BSCALE = 1 and BZERO = 0.
  */
-export function decodePixels(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float64Array): Float64Array {
-  const result = out ?? new Float64Array(count);
+export function decodePixels(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float64Array, place: ErrorPlace = {}): Float64Array {
+  if (![8, 16, 32, 64, -32, -64].includes(s.bitpix)) throw new RangeError(`unsupported BITPIX ${s.bitpix}`);
+  const result = out ?? new Float64Array(uninitialised(8 * count));
   const width = Math.abs(s.bitpix) / 8;
-  const base = result.byteOffset;
-  // stored bytes go into the last width·count bytes of the 8·count output bytes
-  const tail = new Uint8Array(result.buffer, base + (8 - width) * count, width * count);
-  source.readInto(dataOffset, tail);
-  swapped(tail, width);
-  const identity = s.bscale === 1 && s.bzero === 0;
-  const scale = s.bscale;
-  const zero = s.bzero;
-  const first = (8 - width) * count / width; // index of the first stored value in a width-sized view
-  switch (s.bitpix) {
-    case -64: {
-      if (!identity) for (let i = 0; i < count; i++) result[i] = zero + scale * (result[i] as number);
-      break;
-    }
-    case -32: {
-      const v = new Float32Array(result.buffer, base, 2 * count);
-      if (identity) for (let i = 0; i < count; i++) result[i] = v[first + i] as number;
-      else for (let i = 0; i < count; i++) result[i] = zero + scale * (v[first + i] as number);
-      break;
-    }
-    case 32:
-      widenInts(new Int32Array(result.buffer, base, 2 * count), first, result, count, scale, zero, s.blank);
-      break;
-    case 16:
-      widenInts(new Int16Array(result.buffer, base, 4 * count), first, result, count, scale, zero, s.blank);
-      break;
-    case 8:
-      widenInts(new Uint8Array(result.buffer, base, 8 * count), first, result, count, scale, zero, s.blank);
-      break;
-    case 64:
-      widenInt64(result, count, scale, zero, s.blank);
-      break;
-    default:
-      throw new RangeError(`unsupported BITPIX ${s.bitpix}`);
+  const scratch = scratchBytes();
+  const perChunk = SWAP_CHUNK_BYTES / width;
+  const blank = blankNumber(s.blank, s.bitpix);
+  for (let i0 = 0; i0 < count; i0 += perChunk) {
+    const k = Math.min(perChunk, count - i0);
+    readExactly(source, dataOffset + i0 * width, scratch.subarray(0, k * width), place);
+    if (width > 1) swapScratch(k * width, width as SwapWidth);
+    widenChunk(scratch, k, s, blank, result, i0);
   }
   return result;
 }
 
-/** In-place forward widening: element i is read before out[i] overwrites bytes of elements ≤ i only. */
-function widenInts(
-  v: Int32Array | Int16Array | Uint8Array,
-  first: number,
-  out: Float64Array,
-  count: number,
-  scale: number,
-  zero: number,
-  blank: bigint | null,
-): void {
-  const min = v instanceof Int32Array ? -2147483648 : v instanceof Int16Array ? -32768 : 0;
-  const max = v instanceof Int32Array ? 2147483647 : v instanceof Int16Array ? 32767 : 255;
-  const b = blank !== null && blank >= BigInt(min) && blank <= BigInt(max) ? Number(blank) : NaN; // NaN never matches
-  for (let i = 0; i < count; i++) {
-    const raw = v[first + i] as number;
-    out[i] = raw === b ? NaN : zero + scale * raw;
+/** Convert `k` native-order stored values at the start of `scratch` into `out[i0 … i0+k)` as float64. */
+function widenChunk(scratch: Uint8Array, k: number, s: PixelScaling, blank: number, out: Float64Array, i0: number): void {
+  const buf = scratch.buffer;
+  const at = scratch.byteOffset;
+  const scale = s.bscale;
+  const zero = s.bzero;
+  const identity = scale === 1 && zero === 0;
+  switch (s.bitpix) {
+    case -64: {
+      const v = new Float64Array(buf, at, k);
+      if (identity) out.set(v, i0);
+      else for (let i = 0; i < k; i++) out[i0 + i] = zero + scale * (v[i] as number);
+      break;
+    }
+    case -32: {
+      const v = new Float32Array(buf, at, k);
+      if (identity) out.set(v, i0);
+      else for (let i = 0; i < k; i++) out[i0 + i] = zero + scale * (v[i] as number);
+      break;
+    }
+    case 32:
+      widenInts(new Int32Array(buf, at, k), out, i0, scale, zero, blank);
+      break;
+    case 16:
+      widenInts(new Int16Array(buf, at, k), out, i0, scale, zero, blank);
+      break;
+    case 8:
+      widenInts(new Uint8Array(buf, at, k), out, i0, scale, zero, blank);
+      break;
+    default:
+      widenInt64(new Uint32Array(buf, at, 2 * k), new Int32Array(buf, at, 2 * k), k, out, i0, scale, zero, s.blank);
   }
 }
 
-/** 64-bit integers: after swap64 each value is little-endian (lo, hi) 32-bit words; value = hi·2^32 + lo. */
-function widenInt64(out: Float64Array, count: number, scale: number, zero: number, blank: bigint | null): void {
-  const u = new Uint32Array(out.buffer, out.byteOffset, 2 * count);
-  const h = new Int32Array(out.buffer, out.byteOffset, 2 * count);
+/** out[i0 + i] = BLANK ? NaN : zero + scale · v[i], into a Float64Array or (rounding to nearest) a Float32Array. */
+function widenInts(v: Int32Array | Int16Array | Uint8Array, out: Float64Array | Float32Array, i0: number, scale: number, zero: number, blank: number): void {
+  const k = v.length;
+  for (let i = 0; i < k; i++) {
+    const raw = v[i] as number;
+    out[i0 + i] = raw === blank ? NaN : zero + scale * raw;
+  }
+}
+
+/** 64-bit integers: after the swap each value is little-endian (lo, hi) 32-bit words; value = hi·2^32 + lo. */
+function widenInt64(u: Uint32Array, h: Int32Array, k: number, out: Float64Array, i0: number, scale: number, zero: number, blank: bigint | null): void {
   let blo = -1;
   let bhi = 0;
   if (blank !== null && blank >= -(2n ** 63n) && blank < 2n ** 63n) {
     blo = Number(BigInt.asUintN(32, blank));
     bhi = Number(BigInt.asIntN(32, blank >> 32n));
   }
-  for (let i = 0; i < count; i++) {
+  for (let i = 0; i < k; i++) {
     const lo = u[2 * i] as number;
     const hi = h[2 * i + 1] as number;
-    out[i] = lo === blo && hi === bhi ? NaN : zero + scale * (hi * 4294967296 + lo);
+    out[i0 + i] = lo === blo && hi === bhi ? NaN : zero + scale * (hi * 4294967296 + lo);
   }
+}
+
+/**
+ * Decode `count` pixels of an 8-bit, 16-bit or float32 array (BITPIX 8, 16, −32; see
+ * {@link FLOAT32_BITPIX}) stored from byte `dataOffset` of `source` into a native-order Float32Array
+ * (`out`, or a new one). Unscaled float32 values (NaN included) are the stored ones, bit for bit, as
+ * astropy's `.data` holds them. With BSCALE/BZERO, or for integers, each value is the float64
+ * physical value BZERO + BSCALE · stored (FITS 4.0 eq. 3) rounded once to the nearest float32, so the
+ * result equals `Math.fround` of {@link decodePixels}'s (astropy instead computes in float32, which
+ * can differ by an ulp). NaN where an integer equals BLANK (§4.4.2.5). RangeError for other BITPIX.
+ */
+export function decodePixelsFloat32(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float32Array, place: ErrorPlace = {}): Float32Array {
+  if (!FLOAT32_BITPIX.includes(s.bitpix)) throw new RangeError(`BITPIX ${s.bitpix} does not fit float32 exactly`);
+  const result = out ?? new Float32Array(uninitialised(4 * count));
+  const scale = s.bscale;
+  const zero = s.bzero;
+  if (s.bitpix === -32) {
+    const bytes = new Uint8Array(result.buffer, result.byteOffset, 4 * count);
+    for (let o = 0; o < bytes.length; o += SWAP_CHUNK_BYTES) {
+      const part = bytes.subarray(o, Math.min(bytes.length, o + SWAP_CHUNK_BYTES));
+      readExactly(source, dataOffset + o, part, place);
+      swapInPlace(part, 4);
+    }
+    if (scale !== 1 || zero !== 0) for (let i = 0; i < count; i++) result[i] = zero + scale * (result[i] as number);
+    return result;
+  }
+  const width = s.bitpix / 8;
+  const scratch = scratchBytes();
+  const perChunk = SWAP_CHUNK_BYTES / width;
+  const blank = blankNumber(s.blank, s.bitpix);
+  for (let i0 = 0; i0 < count; i0 += perChunk) {
+    const k = Math.min(perChunk, count - i0);
+    readExactly(source, dataOffset + i0 * width, scratch.subarray(0, k * width), place);
+    if (width === 2) {
+      swapScratch(2 * k, 2);
+      widenInts(new Int16Array(scratch.buffer, scratch.byteOffset, k), result, i0, scale, zero, blank);
+    } else {
+      widenInts(new Uint8Array(scratch.buffer, scratch.byteOffset, k), result, i0, scale, zero, blank);
+    }
+  }
+  return result;
 }

@@ -7,7 +7,7 @@ import { isMapUnit, UmbraError } from "@umbra/core";
 import type { SkyMap } from "../types.js";
 import { BLOCK_BYTES, type FitsHeader } from "./header.js";
 import { scanHdus, type HduLayout, type HduType } from "./layout.js";
-import { decodePixels } from "./pixels.js";
+import { decodePixels, decodePixelsFloat32, FLOAT32_BITPIX } from "./pixels.js";
 import { mapShape, selectHdu, type HduSelector } from "./select.js";
 import { fileSource, memorySource, type ByteSource } from "./source.js";
 import { wcsFromHeader } from "./wcs-link.js";
@@ -22,12 +22,31 @@ export interface ReadFitsOptions {
   out?: Float64Array;
   /** Parse the WCS (default true); false leaves `map.wcs` null, e.g. to inspect a file whose WCS is broken. */
   wcs?: boolean;
+  /** Element type of the pixels: "float64" (the default; a {@link SkyMap}). See {@link ReadFitsFloat32Options}. */
+  dtype?: "float64";
 }
 
-/** One image read from a FITS file. */
-export interface FitsImage {
+/**
+ * Options for reading an image as float32 (BITPIX −32, 16 or 8 only; compressed images with ZBITPIX
+ * −32, 16 or 8): the like-for-like of astropy's `.data` for a float32 image, half the memory of a
+ * float64 read. Other BITPIX values are refused (BAD_VALUE naming BITPIX) rather than rounded.
+ */
+export interface ReadFitsFloat32Options extends Omit<ReadFitsOptions, "out" | "dtype"> {
+  dtype: "float32";
+  /** Read into this array (length ≥ nx·ny) instead of allocating one (uncompressed images only). */
+  out?: Float32Array;
+}
+
+/** A {@link SkyMap} whose pixels are float32. */
+export interface SkyMapFloat32 extends Omit<SkyMap, "data"> {
+  /** Pixel values, row-major, x fastest, native byte order; NaN marks missing pixels. */
+  data: Float32Array;
+}
+
+/** One image read from a FITS file; `M` is {@link SkyMap} (float64) or {@link SkyMapFloat32}. */
+export interface FitsImage<M extends SkyMap | SkyMapFloat32 = SkyMap> {
   /** The pixels as physical values (BZERO + BSCALE · stored; NaN for BLANK), WCS and unit. */
-  map: SkyMap;
+  map: M;
   /** The HDU's full header (for a compressed image: the table header with its Z keywords). */
   header: FitsHeader;
   /** Which HDU it came from. */
@@ -117,19 +136,41 @@ function checkFill(source: ByteSource, layout: HduLayout, file: string): void {
   }
 }
 
+type AnyReadOptions = ReadFitsOptions | ReadFitsFloat32Options;
+type AnyFitsImage = FitsImage | FitsImage<SkyMapFloat32>;
+
 /**
  * As {@link readFitsImage}, from an open {@link ByteSource} (see {@link openFitsSource}), so several
  * HDUs of one file can be read without reopening or gunzipping it again; the caller closes it.
  */
-export async function readFitsImageFromSource(source: ByteSource, file: string, options: ReadFitsOptions = {}): Promise<FitsImage> {
+export async function readFitsImageFromSource(source: ByteSource, file: string, options: ReadFitsFloat32Options): Promise<FitsImage<SkyMapFloat32>>;
+export async function readFitsImageFromSource(source: ByteSource, file: string, options?: ReadFitsOptions): Promise<FitsImage>;
+export async function readFitsImageFromSource(source: ByteSource, file: string, options: AnyReadOptions = {}): Promise<AnyFitsImage> {
   return readSelected(source, file, options);
 }
 
-async function readSelected(source: ByteSource, file: string, options: ReadFitsOptions): Promise<FitsImage> {
+function refuseFloat32(bitpix: number, file: string, hdu: number, keyword: string): void {
+  if (!FLOAT32_BITPIX.includes(bitpix)) {
+    throw new UmbraError("BAD_VALUE", `float32 output cannot hold ${keyword} = ${bitpix} values exactly: read it as float64 (the default)`, {
+      file,
+      hdu,
+      keyword,
+    });
+  }
+}
+
+function checkOut(out: Float64Array | Float32Array | undefined, n: number, file: string, hdu: number): void {
+  if (out !== undefined && out.length < n) {
+    throw new UmbraError("BAD_VALUE", `output array holds ${out.length} values, image needs ${n}`, { file, hdu });
+  }
+}
+
+async function readSelected(source: ByteSource, file: string, options: AnyReadOptions): Promise<AnyFitsImage> {
   const hdus = scanHdus(source, file);
   const layout = selectHdu(hdus, options.hdu, file);
   const h = layout.header;
-  let data: Float64Array;
+  const float32 = options.dtype === "float32";
+  let data: Float64Array | Float32Array;
   let nx: number;
   let ny: number;
   let bitpix = layout.bitpix;
@@ -137,13 +178,15 @@ async function readSelected(source: ByteSource, file: string, options: ReadFitsO
     // fitsjs-ng is loaded only when a compressed image is met (its import takes ~110 ms)
     const { decodeCompressedImage } = await import("./compressed.js");
     const c = await decodeCompressedImage(source, layout, file);
-    ({ data, nx, ny } = c);
+    ({ nx, ny } = c);
     bitpix = c.zbitpix;
+    if (float32) refuseFloat32(bitpix, file, layout.index, "ZBITPIX");
+    data = float32 ? new Float32Array(c.data) : c.data; // ZBITPIX -32/16/8 values are float32 numbers: exact
   } else {
+    if (float32) refuseFloat32(bitpix, file, layout.index, "BITPIX");
     [nx, ny] = mapShape(layout.naxes, file, layout.index);
-    if (options.out !== undefined && options.out.length < nx * ny) {
-      throw new UmbraError("BAD_VALUE", `output array holds ${options.out.length} values, image needs ${nx * ny}`, { file, hdu: layout.index });
-    }
+    const n = nx * ny;
+    checkOut(options.out, n, file, layout.index);
     const scaling = {
       bitpix,
       bscale: scalingNumber(h, "BSCALE", 1, file, layout.index),
@@ -151,8 +194,14 @@ async function readSelected(source: ByteSource, file: string, options: ReadFitsO
       blank: blankOf(layout, file),
     };
     checkFill(source, layout, file);
-    const out = options.out === undefined ? undefined : options.out.length === nx * ny ? options.out : options.out.subarray(0, nx * ny);
-    data = decodePixels(source, layout.dataOffset, nx * ny, scaling, out);
+    const place = { file, hdu: layout.index };
+    if (options.dtype === "float32") {
+      const out = options.out === undefined || options.out.length === n ? options.out : options.out.subarray(0, n);
+      data = decodePixelsFloat32(source, layout.dataOffset, n, scaling, out, place);
+    } else {
+      const out = options.out === undefined || options.out.length === n ? options.out : options.out.subarray(0, n);
+      data = decodePixels(source, layout.dataOffset, n, scaling, out, place);
+    }
   }
   if (options.allowAllNaN !== true) {
     let finite = false;
@@ -161,19 +210,32 @@ async function readSelected(source: ByteSource, file: string, options: ReadFitsO
   }
   const bunitValue = h.get("BUNIT");
   const bunit = typeof bunitValue === "string" ? bunitValue.trim() : null;
-  const map: SkyMap = { data, nx, ny, wcs: options.wcs === false ? null : wcsFromHeader(h, file) };
-  if (bunit !== null && isMapUnit(bunit)) map.unit = bunit;
-  return { map, header: h, hdu: { index: layout.index, extname: layout.extname, type: layout.type }, bitpix, bunit, file };
+  const wcs = options.wcs === false ? null : wcsFromHeader(h, file);
+  const unit = bunit !== null && isMapUnit(bunit) ? bunit : undefined;
+  const hdu = { index: layout.index, extname: layout.extname, type: layout.type };
+  if (data instanceof Float32Array) {
+    const map: SkyMapFloat32 = { data, nx, ny, wcs };
+    if (unit !== undefined) map.unit = unit;
+    return { map, header: h, hdu, bitpix, bunit, file };
+  }
+  const map: SkyMap = { data, nx, ny, wcs };
+  if (unit !== undefined) map.unit = unit;
+  return { map, header: h, hdu, bitpix, bunit, file };
 }
 
 /**
  * Read one 2-D image from the FITS file at `path` (`.fits` or gzip-compressed `.fits.gz`, detected by
  * its magic bytes). Pixels are physical values BZERO + BSCALE · stored (FITS 4.0 eq. 3) in float64,
- * NaN for BLANK integers (FITS 4.0 §4.4.2.5) and for NaN floats. Axes beyond the second must have
- * length 1. Errors: NOT_FOUND (no file), BAD_FITS (not FITS, truncated, bad keywords, no such HDU,
- * not a 2-D image), BAD_DATA (every pixel NaN unless `allowAllNaN`), BAD_WCS (from the WCS parser).
+ * NaN for BLANK integers (FITS 4.0 §4.4.2.5) and for NaN floats. With `dtype: "float32"` they are a
+ * native-order Float32Array instead (BITPIX −32, 16, 8 only; see {@link decodePixelsFloat32} for the
+ * rounding rule). Axes beyond the second must have length 1. Errors: NOT_FOUND (no file), BAD_FITS
+ * (not FITS, truncated, bad keywords, no such HDU, not a 2-D image), BAD_DATA (every pixel NaN unless
+ * `allowAllNaN`), BAD_WCS (from the WCS parser), BAD_VALUE (`out` too short; float32 asked of a
+ * BITPIX it cannot hold).
  */
-export async function readFitsImage(path: string, options: ReadFitsOptions = {}): Promise<FitsImage> {
+export async function readFitsImage(path: string, options: ReadFitsFloat32Options): Promise<FitsImage<SkyMapFloat32>>;
+export async function readFitsImage(path: string, options?: ReadFitsOptions): Promise<FitsImage>;
+export async function readFitsImage(path: string, options: AnyReadOptions = {}): Promise<AnyFitsImage> {
   const source = openFitsSource(path);
   try {
     return await readSelected(source, path, options);
@@ -183,7 +245,9 @@ export async function readFitsImage(path: string, options: ReadFitsOptions = {})
 }
 
 /** As {@link readFitsImage}, for a FITS file already in memory; `file` names it in errors. */
-export async function parseFitsImage(bytes: Uint8Array, file: string, options: ReadFitsOptions = {}): Promise<FitsImage> {
+export async function parseFitsImage(bytes: Uint8Array, file: string, options: ReadFitsFloat32Options): Promise<FitsImage<SkyMapFloat32>>;
+export async function parseFitsImage(bytes: Uint8Array, file: string, options?: ReadFitsOptions): Promise<FitsImage>;
+export async function parseFitsImage(bytes: Uint8Array, file: string, options: AnyReadOptions = {}): Promise<AnyFitsImage> {
   return readSelected(bytesSource(bytes, file), file, options);
 }
 

@@ -6,8 +6,7 @@
  * Speed (measurements in docs/fits-reader.md): the file is read in chunks of {@link SWAP_CHUNK_BYTES}
  * so each chunk is byte-swapped (WebAssembly SIMD, ./byteswap.ts) and converted while it is still in
  * the CPU cache; the float64 path reads each chunk into the swap scratch and widens from there into
- * the output, the float32 path reads straight into the output's own bytes. Fresh outputs are
- * allocated without zero-filling, since every element is written (or the read throws).
+ * the output, the float32 path reads straight into the output's own bytes.
  */
 import { UmbraError, type ErrorPlace } from "@umbra/core";
 import { scratchBytes, swapInPlace, swapScratch, SWAP_CHUNK_BYTES, type SwapWidth } from "./byteswap.js";
@@ -27,16 +26,6 @@ export interface PixelScaling {
 
 /** BITPIX values whose physical values {@link decodePixelsFloat32} can return (float32 holds every 8/16-bit integer). */
 export const FLOAT32_BITPIX: readonly number[] = [-32, 16, 8];
-
-/**
- * An ArrayBuffer of `bytes` bytes that is not zero-filled (`Buffer.allocUnsafeSlow`: its own
- * allocation, never a pooled slice). Only for outputs every byte of which is written before use.
- */
-function uninitialised(bytes: number): ArrayBuffer {
-  const b = Buffer.allocUnsafeSlow(bytes);
-  if (b.byteOffset === 0 && b.buffer.byteLength === bytes && b.buffer instanceof ArrayBuffer) return b.buffer;
-  return new ArrayBuffer(bytes);
-}
 
 /** Fill `target` from `offset`, or throw BAD_FITS when the data end early (the layout scan should prevent it). */
 function readExactly(source: ByteSource, offset: number, target: Uint8Array, place: ErrorPlace): void {
@@ -62,7 +51,7 @@ function blankNumber(blank: bigint | null, bitpix: number): number {
  */
 export function decodePixels(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float64Array, place: ErrorPlace = {}): Float64Array {
   if (![8, 16, 32, 64, -32, -64].includes(s.bitpix)) throw new RangeError(`unsupported BITPIX ${s.bitpix}`);
-  const result = out ?? new Float64Array(uninitialised(8 * count));
+  const result = out ?? new Float64Array(count);
   const width = Math.abs(s.bitpix) / 8;
   const scratch = scratchBytes();
   const perChunk = SWAP_CHUNK_BYTES / width;
@@ -145,7 +134,7 @@ function widenInt64(u: Uint32Array, h: Int32Array, k: number, out: Float64Array,
  */
 export function decodePixelsFloat32(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float32Array, place: ErrorPlace = {}): Float32Array {
   if (!FLOAT32_BITPIX.includes(s.bitpix)) throw new RangeError(`BITPIX ${s.bitpix} does not fit float32 exactly`);
-  const result = out ?? new Float32Array(uninitialised(4 * count));
+  const result = out ?? new Float32Array(count);
   const scale = s.bscale;
   const zero = s.bzero;
   if (s.bitpix === -32) {

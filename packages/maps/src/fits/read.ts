@@ -181,7 +181,7 @@ async function readSelected(source: ByteSource, file: string, options: AnyReadOp
     ({ nx, ny } = c);
     bitpix = c.zbitpix;
     if (float32) refuseFloat32(bitpix, file, layout.index, "ZBITPIX");
-    data = float32 ? new Float32Array(c.data) : c.data; // ZBITPIX -32/16/8 values are float32 numbers: exact
+    data = float32 ? new Float32Array(c.data) : c.data; // each value rounded once to float32 (exact unless dequantised)
   } else {
     if (float32) refuseFloat32(bitpix, file, layout.index, "BITPIX");
     [nx, ny] = mapShape(layout.naxes, file, layout.index);

@@ -1,7 +1,8 @@
 /**
  * Fuzzing the FITS reader: 600 mutated copies of the fixtures (byte flips, truncations, header card
- * edits, gzip wrapping) from a fixed seed. Every read must either succeed or throw an UmbraError —
- * never another exception — and finish promptly (a guard against endless loops, not a speed test).
+ * edits, gzip wrapping) from a fixed seed, each read with both output types (float64 and float32).
+ * Every read must either succeed or throw an UmbraError — never another exception — and finish
+ * promptly (a guard against endless loops, not a speed test).
  */
 import { gzipSync } from "node:zlib";
 import { describe, expect, it } from "vitest";
@@ -70,7 +71,7 @@ function mutate(rng: Rng, bytes: Uint8Array): { bytes: Uint8Array; how: string }
 }
 
 describe("FITS reader fuzz", () => {
-  it("600 mutated files (seed 20261201) give results or UmbraErrors only, each read within 5 s", async () => {
+  it("600 mutated files (seed 20261201), each read as float64 and as float32, give results or UmbraErrors only, each read within 5 s", async () => {
     const rng = createRng(20261201);
     const originals = FILES.map((f) => fixtureBytes(f));
     const unexpected: string[] = [];
@@ -81,16 +82,19 @@ describe("FITS reader fuzz", () => {
       const which = Math.floor(rng.uniform() * FILES.length);
       const { bytes, how } = mutate(rng, originals[which] as Uint8Array);
       const hdu = pick(rng, [undefined, 0, 1, 3, "YMAP", "RICE16"] as const);
-      const t0 = performance.now();
-      try {
-        parseFitsLayout(bytes, "fuzz.fits");
-        await parseFitsImage(bytes, "fuzz.fits", hdu === undefined ? {} : { hdu });
-        successes++;
-      } catch (e) {
-        if (isUmbraError(e)) umbraErrors++;
-        else unexpected.push(`case ${i} (${FILES[which]}, ${how}, hdu ${String(hdu)}): ${e instanceof Error ? `${e.name}: ${e.message}` : String(e)}`);
+      for (const dtype of ["float64", "float32"] as const) {
+        const t0 = performance.now();
+        try {
+          parseFitsLayout(bytes, "fuzz.fits");
+          if (dtype === "float32") await parseFitsImage(bytes, "fuzz.fits", hdu === undefined ? { dtype } : { hdu, dtype });
+          else await parseFitsImage(bytes, "fuzz.fits", hdu === undefined ? {} : { hdu });
+          successes++;
+        } catch (e) {
+          if (isUmbraError(e)) umbraErrors++;
+          else unexpected.push(`case ${i} ${dtype} (${FILES[which]}, ${how}, hdu ${String(hdu)}): ${e instanceof Error ? `${e.name}: ${e.message}` : String(e)}`);
+        }
+        slowest = Math.max(slowest, performance.now() - t0);
       }
-      slowest = Math.max(slowest, performance.now() - t0);
     }
     expect(unexpected).toEqual([]);
     expect(umbraErrors).toBeGreaterThan(100);

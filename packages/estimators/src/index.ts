@@ -6,3 +6,4 @@ export * from "./search/index.js";
 export * from "./sources/index.js";
 export * from "./ilc/index.js";
 export * from "./aperture/index.js";
+export * from "./tiles/index.js";

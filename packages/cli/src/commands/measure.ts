@@ -13,21 +13,25 @@ import { resolve } from "node:path";
 import type { Command } from "commander";
 import { UmbraError } from "@umbra/core";
 import {
-  a10ProfileShape,
-  bandSed,
   clusterPhysics,
   covarianceFromNoiseSimulations,
+  joinTileMeasurements,
   loadBandStack,
-  measureCatalogByIlc,
-  measureClusters,
-  stackSedProvider,
   type BandStack,
   type ClusterMeasurement,
   type MeasureOptions,
   type MeasureResult,
+  type SkyTile,
+  type TileMeasurement,
+  type TilingOptions,
 } from "@umbra/estimators";
 import { readClusterCatalog, writeCsvAtomic, writeTextAtomic, type CsvValue } from "@umbra/maps";
 import { VERSION } from "../version.js";
+import { parseShard, type Shard } from "../shard.js";
+import { collectTiles, readTileDirs, tileDirFor, type TileRun } from "../tiles/files.js";
+import { deprojectNames, deprojectSedsFor, measureStack, tilesOf, TILE_SEED_STRIDE, type CatalogueRow, type MeasureSettings, type TileOutput } from "../tiles/jobs.js";
+import { runTiles } from "../tiles/run.js";
+import { writeTiledSearchOutputs, type SearchMeta } from "./search.js";
 
 /** Options as commander hands them over. */
 interface MeasureCliOptions {
@@ -49,6 +53,11 @@ interface MeasureCliOptions {
   cosmology: string;
   relation: string;
   noiseSims?: string;
+  tile?: string;
+  tileMargin: string;
+  shard?: string;
+  resume?: boolean;
+  workers: string;
 }
 
 /** The required leading CSV columns (the pipeline contract). */
@@ -75,14 +84,8 @@ export function sizesOption(name: string, text: string): number[] {
 
 /** SEDs of `--deproject cmb,dust` for the stack's bands (dust: modified blackbody at 353 GHz). */
 export function deprojectSeds(stack: BandStack, list: string | undefined, dustBeta: number, dustTempK: number): { seds: Float64Array[]; names: string[] } {
-  if (list === undefined || list.trim() === "") return { seds: [], names: [] };
-  const names = list.split(",").map((s) => s.trim().toLowerCase()).filter((s) => s.length > 0);
-  const seds = names.map((n) => {
-    if (n === "cmb") return bandSed(stack, { kind: "cmb" });
-    if (n === "dust" || n === "cib") return bandSed(stack, { kind: "dust", beta: dustBeta, temperatureK: dustTempK, refFrequencyGHz: 353 });
-    throw new UmbraError("BAD_OPTION", `--deproject: unknown component '${n}' (use cmb, dust)`, { field: "deproject", value: n });
-  });
-  return { seds, names };
+  const names = deprojectNames(list);
+  return { seds: deprojectSedsFor(stack, names, dustBeta, dustTempK), names };
 }
 
 /** SHA-256 of a file, hex. */
@@ -116,25 +119,99 @@ export function jsonSafe(_key: string, v: unknown): unknown {
   return typeof v === "number" && !Number.isFinite(v) ? null : v;
 }
 
-async function runMeasure(o: MeasureCliOptions): Promise<void> {
+/** Parse the CLI options into plain settings (BAD_OPTION naming the first bad one). */
+function measureSettings(o: MeasureCliOptions): MeasureSettings {
   if (o.method !== "mmf" && o.method !== "ilc") throw new UmbraError("BAD_OPTION", `--method ${o.method}: use mmf or ilc`, { field: "method", value: o.method });
-  const dustBeta = numberOption("dust-beta", o.dustBeta, (v) => v > -5 && v < 5, "must be a spectral index between -5 and 5");
-  const dustTemp = numberOption("dust-temp", o.dustTemp, (v) => v > 0, "must be a positive temperature in K");
-  const randomCount = numberOption("randoms", o.randoms, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0");
-  const seed = numberOption("seed", o.seed, Number.isInteger, "must be an integer");
-  const apodisation = numberOption("apodisation", o.apodisation, (v) => v >= 0, "must be ≥ 0 arcmin");
-  const iterations = numberOption("iterations", o.iterations, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0");
-  const scanSizes = o.scanSizes === undefined ? undefined : sizesOption("scan-sizes", o.scanSizes);
-  const physics = clusterPhysics(o.cosmology, o.relation);
+  const s: MeasureSettings = {
+    method: o.method,
+    deproject: deprojectNames(o.deproject),
+    dustBeta: numberOption("dust-beta", o.dustBeta, (v) => v > -5 && v < 5, "must be a spectral index between -5 and 5"),
+    dustTempK: numberOption("dust-temp", o.dustTemp, (v) => v > 0, "must be a positive temperature in K"),
+    ksz: o.ksz === true,
+    relativistic: o.relativistic,
+    randomCount: numberOption("randoms", o.randoms, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0"),
+    seed: numberOption("seed", o.seed, Number.isInteger, "must be an integer"),
+    scanSizesArcmin: o.scanSizes === undefined ? null : sizesOption("scan-sizes", o.scanSizes),
+    apodisationArcmin: numberOption("apodisation", o.apodisation, (v) => v >= 0, "must be ≥ 0 arcmin"),
+    iterations: numberOption("iterations", o.iterations, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0"),
+    cosmology: o.cosmology,
+    relation: o.relation,
+  };
+  clusterPhysics(s.cosmology, s.relation); // unknown names fail here, before any heavy work
+  if (s.ksz && s.deproject.includes("cmb")) {
+    throw new UmbraError("BAD_OPTION", "--ksz with --deproject cmb: the kSZ has the CMB's spectrum, so it would be deprojected too", { field: "ksz" });
+  }
+  if (s.method === "ilc" && (s.deproject.length > 0 || s.ksz)) {
+    throw new UmbraError("BAD_OPTION", "--method ilc takes no --deproject or --ksz here (use umbra ymap for constrained ILC maps, or --method mmf)", { field: "method" });
+  }
+  return s;
+}
+
+/** The provenance settings block of a measure run. */
+function settingsBlock(s: MeasureSettings, simPaths: readonly string[], tiling: TilingOptions | null): Record<string, unknown> {
+  return {
+    method: s.method === "ilc" ? "ilc (scale-dependent ILC y map + aperture photometry, @umbra/estimators aperture/)" : "mmf", profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", deproject: s.deproject,
+    dust: { beta: s.dustBeta, temperatureK: s.dustTempK, refFrequencyGHz: 353 }, ksz: s.ksz, relativistic: s.relativistic,
+    randoms: s.randomCount, seed: s.seed, scanSizesArcmin: s.scanSizesArcmin ?? "default (15 sizes, 0.5–10 arcmin)", apodisationArcmin: s.apodisationArcmin,
+    cleaningIterations: s.iterations, cosmology: s.cosmology, relation: s.relation, noiseSimulations: simPaths,
+    ...(tiling === null ? {} : { tiles: { tileDeg: tiling.tileDeg, marginArcmin: tiling.marginArcmin, randomSeed: `seed + ${TILE_SEED_STRIDE} × tile index` } }),
+  };
+}
+
+/** Metadata of a measure run that its outputs need (kept in every tile file). */
+interface MeasureMeta {
+  readonly inputs: readonly { path: string; sha256: string }[];
+  readonly settings: Record<string, unknown>;
+  readonly warnings: readonly string[];
+  readonly catalogProblems: readonly unknown[];
+  readonly rowCount: number;
+  readonly tiles: readonly SkyTile[] | null;
+}
+
+/** Write RESULTS.csv (and RESULTS.json with `json`) atomically: the same bytes for a single, tiled or merged run. */
+export async function writeMeasureOutputs(out: string, json: boolean, meta: MeasureMeta, clusters: readonly ClusterMeasurement[], diagnostics: unknown): Promise<void> {
+  await writeCsvAtomic(out, [...MEASURE_COLUMNS, ...MEASURE_EXTRA_COLUMNS], clusters.map(row));
+  if (json) {
+    const doc = {
+      provenance: { tool: "umbra", version: VERSION, command: "measure", inputs: meta.inputs, settings: meta.settings },
+      warnings: meta.warnings,
+      catalogProblems: meta.catalogProblems,
+      diagnostics,
+      clusters,
+    };
+    await writeTextAtomic(jsonPathFor(out), `${JSON.stringify(doc, jsonSafe, 2)}\n`);
+  }
+  const ok = clusters.filter((c) => Number.isFinite(c.y0)).length;
+  progress(`umbra measure: wrote ${out} (${ok} of ${clusters.length} clusters measured)`);
+}
+
+/** The outputs of a tiled measure run from its tile results (catalogue order; per-tile diagnostics). */
+export async function writeTiledMeasureOutputs(out: string, json: boolean, meta: MeasureMeta, results: readonly TileOutput[]): Promise<void> {
+  const parts = results as TileMeasurement<MeasureResult["diagnostics"] | null>[];
+  const clusters = joinTileMeasurements(meta.rowCount, parts);
+  const tiles = meta.tiles ?? [];
+  const diagnostics = { tiles: parts.map((p) => ({ tile: p.tile, core: tiles[p.tile]?.core, outer: tiles[p.tile]?.outer, clusters: p.rows.length, ...p.diagnostics })) };
+  await writeMeasureOutputs(out, json, meta, clusters, diagnostics);
+}
+
+async function runMeasure(o: MeasureCliOptions): Promise<void> {
+  const s = measureSettings(o);
+  const tiling = tilingOption(o);
+  const shard = o.shard === undefined ? null : parseShard(o.shard);
+  const workers = workersOption(o.workers);
+  if (tiling === null && (shard !== null || o.resume === true || workers > 0)) {
+    throw new UmbraError("BAD_OPTION", "--shard, --resume and --workers split a map into sky tiles: give --tile DEG too", { field: "tile" });
+  }
   progress(`umbra measure: reading ${o.bands}`);
   const stack = await loadBandStack(o.bands);
   for (const w of stack.warnings) process.stderr.write(`umbra: warning: ${w}\n`);
   const catalog = await readClusterCatalog(o.catalog);
   for (const p of catalog.problems) process.stderr.write(`umbra: warning: ${o.catalog}, row ${p.row}, column '${p.column}': ${p.message} (row skipped)\n`);
-  const { seds: deproject, names: deprojected } = deprojectSeds(stack, o.deproject, dustBeta, dustTemp);
+  deprojectSedsFor(stack, s.deproject, s.dustBeta, s.dustTempK);
   let noiseCovariance: MeasureOptions["noiseCovariance"];
   const simInputs: { path: string; sha256: string }[] = [];
   const simPaths = (o.noiseSims ?? "").split(",").map((x) => x.trim()).filter((x) => x.length > 0);
+  if (simPaths.length > 0 && tiling !== null) throw new UmbraError("BAD_OPTION", "--noise-sims is not supported with --tile (the simulations' covariance is for the whole map)", { field: "noise-sims" });
   if (simPaths.length > 0) {
     const sims = [];
     for (const p of simPaths) {
@@ -142,61 +219,63 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
       simInputs.push(...sim.inputs);
       sims.push(sim);
     }
-    noiseCovariance = covarianceFromNoiseSimulations(sims, { apodisationArcmin: apodisation });
+    noiseCovariance = covarianceFromNoiseSimulations(sims, { apodisationArcmin: s.apodisationArcmin });
   }
-  if (o.ksz === true && deprojected.includes("cmb")) {
-    throw new UmbraError("BAD_OPTION", "--ksz with --deproject cmb: the kSZ has the CMB's spectrum, so it would be deprojected too", { field: "ksz" });
+  const rows: CatalogueRow[] = catalog.rows.map((r, k) => ({ id: r.id, raDeg: r.raDeg, decDeg: r.decDeg, theta500Arcmin: r.theta500Arcmin, z: r.z, m500Msun: r.m500Msun, teKeV: r.teKeV, row: k + 1 }));
+  const inputs = [...stack.inputs, { path: resolve(o.catalog), sha256: await fileSha256(o.catalog) }, ...simInputs];
+  const meta0 = { inputs, settings: settingsBlock(s, simPaths, tiling), warnings: stack.warnings, catalogProblems: catalog.problems, rowCount: rows.length };
+  if (tiling === null) {
+    progress(`umbra measure: ${rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}`);
+    const result = measureStack(stack, rows, s, noiseCovariance === undefined ? {} : { noiseCovariance });
+    await writeMeasureOutputs(o.out, o.json === true, { ...meta0, tiles: null }, result.clusters, result.diagnostics);
+    return;
   }
-  progress(`umbra measure: ${catalog.rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}`);
-  const rows = catalog.rows.map((r, k) => ({ id: r.id, raDeg: r.raDeg, decDeg: r.decDeg, theta500Arcmin: r.theta500Arcmin, z: r.z, m500Msun: r.m500Msun, teKeV: r.teKeV, row: k + 1 }));
-  if (o.method === "ilc" && (deprojected.length > 0 || o.ksz === true)) {
-    throw new UmbraError("BAD_OPTION", "--method ilc takes no --deproject or --ksz here (use umbra ymap for constrained ILC maps, or --method mmf)", { field: "method" });
+  const tiles = tilesOf(stack, tiling);
+  const meta: MeasureMeta = { ...meta0, tiles };
+  const runKey = runKeyOf("measure", { settings: meta.settings, inputs: inputs.map((i) => i.sha256), tiling, rows: rows.length });
+  const run: TileRun = { command: "measure", runKey, tileCount: tiles.length, meta: meta as unknown as Record<string, unknown> };
+  const dir = tileDirFor(o.out);
+  progress(`umbra measure: ${rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}, ${tiles.length} tiles${shard === null ? "" : ` (shard ${shard.index}/${shard.count})`}`);
+  const done = await runTiles(stack, (t) => ({ kind: "measure", manifestPath: resolve(o.bands), tiling, tile: t, settings: s, rows }), { dir, run, shard, resume: o.resume === true, workers, label: "measure tiles" });
+  await finishTiles(o.out, o.json === true, dir, shard, done, "measure");
+}
+
+/** After a tiled run: a sharded one says what it wrote; a whole one writes the outputs from the tile files. */
+export async function finishTiles(out: string, json: boolean, dir: string, shard: Shard | null, done: { computed: number; skipped: number; owned: number[] }, command: "measure" | "search"): Promise<void> {
+  if (shard !== null && shard.count > 1) {
+    process.stderr.write(`umbra ${command}: shard ${shard.index}/${shard.count}: tiles ${done.owned.length === 0 ? "none" : `${done.owned[0]}–${done.owned[done.owned.length - 1]}`} in ${dir} (${done.computed} computed, ${done.skipped} already there); when every shard is done, join them with: umbra merge --out ${out} ${dir} [the other shards' tile folders, if not this one]\n`);
+    return;
   }
-  const result: { clusters: readonly ClusterMeasurement[]; diagnostics: MeasureResult["diagnostics"] | null } = o.method === "ilc"
-    ? { clusters: measureCatalogByIlc(stack, rows, { profile: a10ProfileShape(), physics, randomCount, seed }).clusters, diagnostics: null }
-    : measureClusters(
-    stack,
-    rows,
-    {
-      profile: a10ProfileShape(),
-      seds: stackSedProvider(stack),
-      physics,
-      deproject,
-      fitKsz: o.ksz === true,
-      relativistic: o.relativistic,
-      ...(scanSizes === undefined ? {} : { scanSizesArcmin: scanSizes }),
-      maxIterations: iterations,
-      randomCount,
-      seed,
-      apodisationArcmin: apodisation,
-      ...(noiseCovariance === undefined ? {} : { noiseCovariance }),
-    },
-  );
-  await writeCsvAtomic(o.out, [...MEASURE_COLUMNS, ...MEASURE_EXTRA_COLUMNS], result.clusters.map(row));
-  if (o.json === true) {
-    const inputs = [...stack.inputs, { path: resolve(o.catalog), sha256: await fileSha256(o.catalog) }, ...simInputs];
-    const doc = {
-      provenance: {
-        tool: "umbra",
-        version: VERSION,
-        command: "measure",
-        inputs,
-        settings: {
-          method: o.method === "ilc" ? "ilc (scale-dependent ILC y map + aperture photometry, @umbra/estimators aperture/)" : "mmf", profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", deproject: deprojected,
-          dust: { beta: dustBeta, temperatureK: dustTemp, refFrequencyGHz: 353 }, ksz: o.ksz === true, relativistic: o.relativistic,
-          randoms: randomCount, seed, scanSizesArcmin: scanSizes ?? "default (15 sizes, 0.5–10 arcmin)", apodisationArcmin: apodisation,
-          cleaningIterations: iterations, cosmology: o.cosmology, relation: o.relation, noiseSimulations: simPaths,
-        },
-      },
-      warnings: stack.warnings,
-      catalogProblems: catalog.problems,
-      diagnostics: result.diagnostics,
-      clusters: result.clusters,
-    };
-    await writeTextAtomic(jsonPathFor(o.out), `${JSON.stringify(doc, jsonSafe, 2)}\n`);
+  await writeFromTileDirs(out, json, [dir]);
+}
+
+/** Write the final outputs of a tiled run from the tile files in `dirs` (also `umbra merge`). */
+export async function writeFromTileDirs(out: string, json: boolean, dirs: readonly string[]): Promise<void> {
+  const { run, results } = collectTiles(await readTileDirs(dirs));
+  if (run.command === "measure") await writeTiledMeasureOutputs(out, json, run.meta as unknown as MeasureMeta, results);
+  else await writeTiledSearchOutputs(out, json, run.meta as unknown as SearchMeta, results);
+}
+
+/** The run key: SHA-256 of the command, version and everything that decides the results. */
+export function runKeyOf(command: string, what: unknown): string {
+  return createHash("sha256").update(JSON.stringify({ command, version: VERSION, what })).digest("hex");
+}
+
+/** `--tile DEG` and `--tile-margin ARCMIN` (null without --tile). */
+export function tilingOption(o: { tile?: string; tileMargin: string; apodisation: string }): TilingOptions | null {
+  if (o.tile === undefined) return null;
+  const tileDeg = numberOption("tile", o.tile, (v) => v > 0, "must be a positive side in degrees");
+  const marginArcmin = numberOption("tile-margin", o.tileMargin, (v) => v >= 0, "must be ≥ 0 arcmin");
+  const apod = Number(o.apodisation);
+  if (Number.isFinite(apod) && marginArcmin < apod) {
+    throw new UmbraError("BAD_OPTION", `--tile-margin ${marginArcmin} arcmin is narrower than the ${apod}-arcmin edge taper: core clusters would sit in the taper`, { field: "tile-margin", value: o.tileMargin });
   }
-  const ok = result.clusters.filter((c) => Number.isFinite(c.y0)).length;
-  progress(`umbra measure: wrote ${o.out} (${ok} of ${result.clusters.length} clusters measured)`);
+  return { tileDeg, marginArcmin };
+}
+
+/** `--workers N` (0 = in this thread). */
+export function workersOption(text: string): number {
+  return numberOption("workers", text, (v) => Number.isInteger(v) && v >= 0 && v <= 256, "must be an integer from 0 (this thread) to 256");
 }
 
 /** Register `umbra measure`. */
@@ -222,5 +301,10 @@ export function register(program: Command): void {
     .option("--cosmology <name>", "cosmology preset for theta500(M, z), D_A and masses", "cmb2018")
     .option("--relation <name>", "Y–M relation for M500: a10 or planck2014", "a10")
     .option("--noise-sims <manifests>", "comma-separated band manifests of noise-only simulations: their mean covariance replaces the data estimate")
+    .option("--tile <deg>", "measure the map in sky tiles of this core side in degrees, each with its own covariance (default: the whole map at once)")
+    .option("--tile-margin <arcmin>", "margin analysed around each tile's core, in arcmin (≥ --apodisation)", "30")
+    .option("--shard <i/N>", "with --tile: compute only shard i of N (contiguous blocks of tiles) into RESULTS.tiles/; join with umbra merge")
+    .option("--resume", "with --tile: skip tiles whose file in RESULTS.tiles/ is already there from the same run")
+    .option("--workers <n>", "with --tile: worker threads measuring tiles in parallel (0 = this thread)", "0")
     .action(async (o: MeasureCliOptions) => runMeasure(o));
 }

@@ -21,7 +21,7 @@ import { loadScenario, type RealisationRecord, type SimulatedField } from "@umbr
 import { fileSha256, numberOption, progress } from "./measure.js";
 import { parseShard, shardRange } from "../shard.js";
 import { progressBar } from "../progress.js";
-import { runPool } from "../regress/pool.js";
+import { runPool } from "../pool.js";
 import { realisationResult, type RealisationJob } from "../regress/worker.js";
 import { readRealisations, runKeyOf, writeRealisation, writeRegressOutputs, type ScenarioRef } from "../regress/outputs.js";
 import type { RealisationResult, RegressSettings } from "../regress/types.js";
@@ -153,7 +153,7 @@ async function runRegress(o: RegressCliOptions): Promise<void> {
     bar.update(finished);
   };
   try {
-    if (workers > 0) await runPool(jobs, workers, keep);
+    if (workers > 0) await runPool(new URL("../regress/worker.ts", import.meta.url), jobs, workers, (j) => `realisation seed ${j.seed}`, keep);
     else for (const job of jobs) await keep(await realisationResult(job));
   } finally {
     bar.stop();

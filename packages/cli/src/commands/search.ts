@@ -7,10 +7,16 @@
 import { mkdir } from "node:fs/promises";
 import { join } from "node:path";
 import type { Command } from "commander";
-import { a10ProfileShape, loadBandStack, searchClusters, stackSedProvider, type Candidate } from "@umbra/estimators";
+import { joinTileSearches, loadBandStack, searchClusters, type Candidate, type SkyTile, type TileSearch } from "@umbra/estimators";
+import { UmbraError } from "@umbra/core";
+import { resolve } from "node:path";
+import { parseShard } from "../shard.js";
+import { tileDirFor, type TileRun } from "../tiles/files.js";
+import { deprojectNames, searchOptionsFor, tilesOf, type SearchSettings, type TileOutput } from "../tiles/jobs.js";
+import { runTiles } from "../tiles/run.js";
 import { writeCsvAtomic, writeSkyMapFits, writeTextAtomic, type CsvValue } from "@umbra/maps";
 import { VERSION } from "../version.js";
-import { deprojectSeds, jsonPathFor, jsonSafe, numberOption, progress, sizesOption } from "./measure.js";
+import { finishTiles, jsonPathFor, jsonSafe, numberOption, progress, runKeyOf, sizesOption, tilingOption, workersOption } from "./measure.js";
 
 interface SearchCliOptions {
   bands: string;
@@ -24,6 +30,11 @@ interface SearchCliOptions {
   apodisation: string;
   iterations: string;
   json?: boolean;
+  tile?: string;
+  tileMargin: string;
+  shard?: string;
+  resume?: boolean;
+  workers: string;
 }
 
 /** CSV columns of the candidate list. */
@@ -41,56 +52,97 @@ function row(c: Candidate): Record<string, CsvValue> {
   };
 }
 
+/** Metadata of a search run that its outputs need (kept in every tile file). */
+export interface SearchMeta {
+  readonly inputs: readonly { path: string; sha256: string }[];
+  readonly settings: Record<string, unknown>;
+  readonly warnings: readonly string[];
+  readonly tiles: readonly SkyTile[] | null;
+}
+
+/** Write CANDIDATES.csv (and .json with `json`) atomically: the same bytes for a tiled, sharded+merged or resumed run. */
+async function writeSearchOutputs(out: string, json: boolean, meta: SearchMeta, candidates: readonly Candidate[], diagnostics: unknown, snrMin: number): Promise<void> {
+  await writeCsvAtomic(out, SEARCH_COLUMNS, candidates.map(row));
+  if (json) {
+    const doc = {
+      provenance: { tool: "umbra", version: VERSION, command: "search", inputs: meta.inputs, settings: meta.settings },
+      warnings: meta.warnings,
+      diagnostics,
+      candidates,
+    };
+    await writeTextAtomic(jsonPathFor(out), `${JSON.stringify(doc, jsonSafe, 2)}\n`);
+  }
+  progress(`umbra search: ${candidates.length} candidates with raw S/N ≥ ${snrMin} written to ${out}`);
+}
+
+/** The outputs of a tiled search from its tile results: candidates of all tiles by raw S/N, per-tile diagnostics, total searched area. */
+export async function writeTiledSearchOutputs(out: string, json: boolean, meta: SearchMeta, results: readonly TileOutput[]): Promise<void> {
+  const parts = results as TileSearch[];
+  const candidates = joinTileSearches(parts.length, parts);
+  const tiles = meta.tiles ?? [];
+  const diagnostics = {
+    searchedAreaDeg2: parts.reduce((a, p) => a + p.diagnostics.searchedAreaDeg2, 0),
+    thresholdUses: "raw",
+    tiles: parts.map((p) => ({ tile: p.tile, core: tiles[p.tile]?.core, outer: tiles[p.tile]?.outer, candidates: p.candidates.length, ...p.diagnostics })),
+  };
+  await writeSearchOutputs(out, json, meta, candidates, diagnostics, Number(meta.settings["snrMin"]));
+}
+
 async function runSearch(o: SearchCliOptions): Promise<void> {
-  const snrMin = numberOption("snr-min", o.snrMin, (v) => v > 0, "must be a positive S/N");
-  const dustBeta = numberOption("dust-beta", o.dustBeta, (v) => v > -5 && v < 5, "must be a spectral index between -5 and 5");
-  const dustTemp = numberOption("dust-temp", o.dustTemp, (v) => v > 0, "must be a positive temperature in K");
-  const apodisation = numberOption("apodisation", o.apodisation, (v) => v >= 0, "must be ≥ 0 arcmin");
-  const iterations = numberOption("iterations", o.iterations, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0");
-  const sizes = o.sizes === undefined ? undefined : sizesOption("sizes", o.sizes);
+  const s: SearchSettings = {
+    snrMin: numberOption("snr-min", o.snrMin, (v) => v > 0, "must be a positive S/N"),
+    sizesArcmin: o.sizes === undefined ? null : sizesOption("sizes", o.sizes),
+    deproject: deprojectNames(o.deproject),
+    dustBeta: numberOption("dust-beta", o.dustBeta, (v) => v > -5 && v < 5, "must be a spectral index between -5 and 5"),
+    dustTempK: numberOption("dust-temp", o.dustTemp, (v) => v > 0, "must be a positive temperature in K"),
+    apodisationArcmin: numberOption("apodisation", o.apodisation, (v) => v >= 0, "must be ≥ 0 arcmin"),
+    iterations: numberOption("iterations", o.iterations, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0"),
+  };
+  const tiling = tilingOption(o);
+  const shard = o.shard === undefined ? null : parseShard(o.shard);
+  const workers = workersOption(o.workers);
+  if (tiling === null && (shard !== null || o.resume === true || workers > 0)) {
+    throw new UmbraError("BAD_OPTION", "--shard, --resume and --workers split a map into sky tiles: give --tile DEG too", { field: "tile" });
+  }
+  if (tiling !== null && o.snrMaps !== undefined) throw new UmbraError("BAD_OPTION", "--snr-maps is not supported with --tile (tiles overlap)", { field: "snr-maps" });
   progress(`umbra search: reading ${o.bands}`);
   const stack = await loadBandStack(o.bands);
   for (const w of stack.warnings) process.stderr.write(`umbra: warning: ${w}\n`);
-  const { seds: deproject, names } = deprojectSeds(stack, o.deproject, dustBeta, dustTemp);
+  const settings = {
+    profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", snrMin: s.snrMin, thresholdUses: "raw S/N (maximised over position and size)",
+    debiasing: "sqrt(max(snr^2 - 3, 0)) (Vanderlinde et al. 2010)", sizesArcmin: s.sizesArcmin ?? "default (15 sizes, 0.5–10 arcmin)",
+    deproject: s.deproject, dust: { beta: s.dustBeta, temperatureK: s.dustTempK, refFrequencyGHz: 353 }, apodisationArcmin: s.apodisationArcmin, cleaningIterations: s.iterations,
+    ...(tiling === null ? {} : { tiles: { tileDeg: tiling.tileDeg, marginArcmin: tiling.marginArcmin } }),
+  };
+  if (tiling !== null) {
+    const tiles = tilesOf(stack, tiling);
+    const meta: SearchMeta = { inputs: stack.inputs, settings, warnings: stack.warnings, tiles };
+    const runKey = runKeyOf("search", { settings, inputs: stack.inputs.map((i) => i.sha256), tiling });
+    const run: TileRun = { command: "search", runKey, tileCount: tiles.length, meta: meta as unknown as Record<string, unknown> };
+    const dir = tileDirFor(o.out);
+    progress(`umbra search: ${stack.bands.length} bands ${stack.nx}×${stack.ny}, ${tiles.length} tiles${shard === null ? "" : ` (shard ${shard.index}/${shard.count})`}`);
+    const done = await runTiles(stack, (t) => ({ kind: "search", manifestPath: resolve(o.bands), tiling, tile: t, settings: s }), { dir, run, shard, resume: o.resume === true, workers, label: "search tiles" });
+    await finishTiles(o.out, o.json === true, dir, shard, done, "search");
+    return;
+  }
   const snrMaps: { theta: number; map: Float32Array }[] = [];
   const result = searchClusters(stack, {
-    profile: a10ProfileShape(),
-    tszSed: stackSedProvider(stack).tsz(0),
-    snrMin,
-    deproject,
-    maxIterations: iterations,
-    apodisationArcmin: apodisation,
-    ...(sizes === undefined ? {} : { sizesArcmin: sizes }),
+    ...searchOptionsFor(stack, s),
     ...(o.snrMaps === undefined ? {} : { onSnrMap: (theta: number, m: Float64Array) => snrMaps.push({ theta, map: Float32Array.from(m) }) }),
   });
-  await writeCsvAtomic(o.out, SEARCH_COLUMNS, result.candidates.map(row));
-  const settings = {
-    profile: "gnfw-a10 (Arnaud et al. 2010), truncated at 5 R500", snrMin, thresholdUses: "raw S/N (maximised over position and size)",
-    debiasing: "sqrt(max(snr^2 - 3, 0)) (Vanderlinde et al. 2010)", sizesArcmin: sizes ?? "default (15 sizes, 0.5–10 arcmin)",
-    deproject: names, dust: { beta: dustBeta, temperatureK: dustTemp, refFrequencyGHz: 353 }, apodisationArcmin: apodisation, cleaningIterations: iterations,
-  };
   if (o.snrMaps !== undefined) {
     await mkdir(o.snrMaps, { recursive: true });
-    for (const s of snrMaps) {
-      const name = `snr_theta${s.theta.toFixed(3)}arcmin.fits`;
-      await writeSkyMapFits(join(o.snrMaps, name), { data: Float64Array.from(s.map), nx: stack.nx, ny: stack.ny, wcs: stack.wcs }, {
+    for (const m of snrMaps) {
+      const name = `snr_theta${m.theta.toFixed(3)}arcmin.fits`;
+      await writeSkyMapFits(join(o.snrMaps, name), { data: Float64Array.from(m.map), nx: stack.nx, ny: stack.ny, wcs: stack.wcs }, {
         bitpix: -32,
         extname: "SNR",
-        cards: [{ keyword: "THETA500", value: s.theta, comment: "filter size theta500 [arcmin]" }],
+        cards: [{ keyword: "THETA500", value: m.theta, comment: "filter size theta500 [arcmin]" }],
         provenance: { tool: "umbra", version: VERSION, settings: { command: "search", ...settings }, inputs: stack.inputs.map((i) => ({ file: i.path, sha256: i.sha256 })) },
       });
     }
   }
-  if (o.json === true) {
-    const doc = {
-      provenance: { tool: "umbra", version: VERSION, command: "search", inputs: stack.inputs, settings },
-      warnings: stack.warnings,
-      diagnostics: result.diagnostics,
-      candidates: result.candidates,
-    };
-    await writeTextAtomic(jsonPathFor(o.out), `${JSON.stringify(doc, jsonSafe, 2)}\n`);
-  }
-  progress(`umbra search: ${result.candidates.length} candidates with raw S/N ≥ ${snrMin} written to ${o.out}`);
+  await writeSearchOutputs(o.out, o.json === true, { inputs: stack.inputs, settings, warnings: stack.warnings, tiles: null }, result.candidates, result.diagnostics, s.snrMin);
 }
 
 /** Register `umbra search`. */
@@ -109,5 +161,10 @@ export function register(program: Command): void {
     .option("--apodisation <arcmin>", "width of the edge taper in arcmin", "8")
     .option("--iterations <n>", "cleaning iterations: detections subtracted, covariance re-estimated", "2")
     .option("--json", "also write <out>.json with diagnostics and provenance")
+    .option("--tile <deg>", "search the map in sky tiles of this core side in degrees, each with its own covariance (default: the whole map at once)")
+    .option("--tile-margin <arcmin>", "margin analysed around each tile's core, in arcmin (≥ --apodisation)", "30")
+    .option("--shard <i/N>", "with --tile: compute only shard i of N (contiguous blocks of tiles) into CANDIDATES.tiles/; join with umbra merge")
+    .option("--resume", "with --tile: skip tiles whose file in CANDIDATES.tiles/ is already there from the same run")
+    .option("--workers <n>", "with --tile: worker threads searching tiles in parallel (0 = this thread)", "0")
     .action(async (o: SearchCliOptions) => runSearch(o));
 }

@@ -2,10 +2,10 @@
  * Worker thread of the regression pool: receives {scenarioPath, seed, snrMin, randomCount, runKey}
  * messages, simulates and measures one sky, posts back a RealisationResult (or an error message).
  */
-import { parentPort } from "node:worker_threads";
 import { loadScenario, simulateField } from "@umbra/simulate";
 import { runRealisation } from "../commands/regress.js";
 import type { RealisationResult } from "./types.js";
+import { serveJobs } from "../pool.js";
 
 /** A job for one realisation. */
 export interface RealisationJob {
@@ -27,12 +27,4 @@ export async function realisationResult(job: RealisationJob): Promise<Realisatio
   return { seed: job.seed, runKey: job.runKey, record: run.record, randomScatter: run.forced.diagnostics.randomScatter, iterations: run.forced.diagnostics.iterations };
 }
 
-if (parentPort !== null) {
-  const port = parentPort;
-  port.on("message", (job: RealisationJob) => {
-    realisationResult(job).then(
-      (result) => port.postMessage({ ok: true, result }),
-      (e: unknown) => port.postMessage({ ok: false, seed: job.seed, message: e instanceof Error ? e.message : String(e) }),
-    );
-  });
-}
+serveJobs(realisationResult);

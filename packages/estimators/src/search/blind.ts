@@ -19,6 +19,7 @@ import { prepareStack } from "../photometry/prepare.js";
 import type { BandStack } from "../stack/types.js";
 import { debiasedSnr } from "./debias.js";
 import { deblendPeaks, findPeaks } from "./peaks.js";
+import { boxContains, type PixelBox } from "../tiles/plan.js";
 
 /** Default size grid: 15 sizes log-spaced from 0.5 to 10 arcmin. */
 export const DEFAULT_SEARCH_SIZES_ARCMIN: readonly number[] = Array.from({ length: 15 }, (_, i) => 0.5 * Math.pow(20, i / 14));
@@ -44,6 +45,12 @@ export interface SearchOptions {
   readonly onSnrMap?: (thetaArcmin: number, snr: Float64Array) => void;
   /** Candidate id prefix (default "cand"). */
   readonly idPrefix?: string;
+  /**
+   * Report only candidates whose nearest pixel lies in this box (0-based pixels of `stack`), and
+   * count only its pixels in the searched area; detections outside still clean the covariance.
+   * Used by tiled searches (../tiles/search.ts). Default: the whole map.
+   */
+  readonly reportBox?: PixelBox;
 }
 
 /** One blind candidate. */
@@ -161,9 +168,10 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   // searchable: inside the taper and away from missing/masked pixels by one beam
   const allowed = new Uint8Array(nx * ny);
   let nAllowed = 0;
+  const box = opts.reportBox ?? null;
   for (let p = 0; p < allowed.length; p++) {
     allowed[p] = (prep.window[p] as number) >= 0.999 && prep.inpainted[p] === 0 ? 1 : 0;
-    nAllowed += allowed[p] as number;
+    if (allowed[p] === 1 && (box === null || boxContains(box, p % nx, Math.floor(p / nx)))) nAllowed++;
   }
   const noise = stack.bands.some((b) => b.ivar !== null) ? whiteNoiseModel(stack.bands.map((b) => b.ivar), prep.window) : null;
   const maxIt = opts.maxIterations ?? 2;
@@ -197,7 +205,7 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   }
   const prefix = opts.idPrefix ?? "cand";
   const candidates = cands
-    .filter((c) => c.snrRaw >= snrMin)
+    .filter((c) => c.snrRaw >= snrMin && (box === null || boxContains(box, c.px, c.py)))
     .sort((a, b) => b.snrRaw - a.snrRaw)
     .map((c, k) => {
       const w = pixelToWorld(wcs, c.px, c.py);

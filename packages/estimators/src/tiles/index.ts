@@ -1,0 +1,3 @@
+export * from "./plan.js";
+export * from "./measure.js";
+export * from "./search.js";

@@ -7,6 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync, rmSync, statSync, unlinkSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { execFileSync } from "node:child_process";
+import { fileURLToPath } from "node:url";
 import { loadScenario, simulateField, writeSimulatedField } from "../../simulate/src/index.js";
 import { capture } from "./capture.js";
 
@@ -122,4 +124,18 @@ describe("umbra search --tile: shards in one folder, merge", () => {
     expect(read(join(dir, "s-merged.json"))).toBe(read(join(dir, "s-single", "cands.json")));
     expect(read(single).trim().split("\n").length).toBeGreaterThan(1);
   }, 120_000);
+});
+
+describe("docs/hpc/measure-tiles-slurm.sh", () => {
+  it("runs as two array tasks and a merge job, measuring every catalogue row", () => {
+    const root = fileURLToPath(new URL("../../../", import.meta.url));
+    const out = join(dir, "slurm", "results.csv");
+    const env = { ...process.env, BANDS: manifest, CATALOG: catalog, TILE_DEG: "1", SHARDS: "2", OUT: out, SLURM_CPUS_PER_TASK: "1" };
+    for (const task of ["1", "2"]) execFileSync("bash", ["docs/hpc/measure-tiles-slurm.sh"], { cwd: root, env: { ...env, SLURM_ARRAY_TASK_ID: task }, stdio: "pipe" });
+    execFileSync("bash", ["docs/hpc/measure-tiles-slurm.sh", "merge"], { cwd: root, env, stdio: "pipe" });
+    const rows = read(out).trim().split("\n").length - 1;
+    const truthRows = read(catalog).split("\n").filter((l) => l.length > 0 && !l.startsWith("#")).length - 1;
+    expect(rows).toBe(truthRows);
+    expect(JSON.parse(read(join(dir, "slurm", "results.json"))).diagnostics.tiles.length).toBe(4);
+  }, 180_000);
 });

@@ -1,15 +1,17 @@
 /**
  * Reprojection of one map onto another map's pixel grid: for each target pixel, its sky position
- * (target WCS), then that position's pixel in the source (source WCS), then interpolation there
- * (Keys 1981 bicubic by default, or bilinear). This is interpolation, not flux-conserving
+ * (target WCS), rotated into the source's celestial frame when the frames differ (ICRS, FK5 J2000,
+ * Galactic; ../wcs/frames.ts), then that position's pixel in the source (source WCS), then
+ * interpolation there (Keys 1981 bicubic by default, or bilinear). This is interpolation, not flux-conserving
  * drizzling: it suits maps sampled well above the beam (several pixels per FWHM).
  */
 import { UmbraError } from "@umbra/core";
 import type { SkyMap } from "../types.js";
-import { pixelToWorldPlanned, planWcs, worldToPixelPlanned } from "../wcs/transform.js";
+import { planWcs } from "../wcs/transform.js";
 import type { Wcs } from "../wcs/types.js";
 import { sampleBicubic, sampleBilinear } from "./interpolate.js";
 import type { InterpolationMethod } from "./interpolate.js";
+import { planPixelMapping, targetToSourcePixel } from "./mapping.js";
 
 /** A target pixel grid. */
 export interface TargetGrid {
@@ -27,35 +29,26 @@ export interface ReprojectOptions {
 /**
  * Resample `source` onto `target`'s grid. Target pixels whose sky position falls outside the
  * source (beyond its outer pixel edges, or not projectable) are NaN; NaN source pixels with a
- * non-zero interpolation weight give NaN. The unit is kept.
- * @throws UmbraError BAD_WCS when either map has no WCS or their celestial frames differ
- *   (no frame conversion is done); BAD_OPTION for an unknown method.
+ * non-zero interpolation weight give NaN. The unit is kept. Source and target may be in different
+ * frames among ICRS, FK5 (equinox 2000) and Galactic (e.g. a GLON/GLAT band onto an RA/DEC grid).
+ * @throws UmbraError BAD_WCS when either map has no WCS or their frames cannot be converted
+ *   (FK4, GAPPT, FK5 at another equinox); BAD_OPTION for an unknown method.
  */
 export function reproject(source: SkyMap, target: TargetGrid, options: ReprojectOptions = {}): SkyMap {
   if (source.wcs === null) throw new UmbraError("BAD_WCS", "the source map has no celestial WCS", { keyword: "CTYPE1" });
   const method = options.method ?? "bicubic";
   if (method !== "bicubic" && method !== "bilinear") throw new UmbraError("BAD_OPTION", `unknown interpolation method '${String(method)}'`, { field: "method" });
-  const sw = source.wcs;
   const tw = target.wcs;
-  if (sw.radesys !== tw.radesys || sw.equinox !== tw.equinox) {
-    throw new UmbraError("BAD_WCS", `celestial frames differ (${sw.radesys}/${String(sw.equinox)} vs ${tw.radesys}/${String(tw.equinox)}): no frame conversion is done`, { keyword: "RADESYS" });
-  }
+  const mapping = planPixelMapping(source.wcs, tw);
   const sample = method === "bicubic" ? sampleBicubic : sampleBilinear;
-  const sp = planWcs(sw);
-  const tp = planWcs(tw);
   const { nx, ny } = target;
   const out = new Float64Array(nx * ny);
   const tmp = new Float64Array(2);
   const src = source.data;
   for (let iy = 0; iy < ny; iy++) {
     for (let ix = 0; ix < nx; ix++) {
-      pixelToWorldPlanned(tp, ix, iy, tmp);
-      if (Number.isNaN(tmp[0] as number)) {
-        out[iy * nx + ix] = NaN;
-        continue;
-      }
-      worldToPixelPlanned(sp, tmp[0] as number, tmp[1] as number, tmp);
-      out[iy * nx + ix] = sample(src, source.nx, source.ny, tmp[0] as number, tmp[1] as number);
+      targetToSourcePixel(mapping, ix, iy, tmp);
+      out[iy * nx + ix] = Number.isNaN(tmp[0] as number) ? NaN : sample(src, source.nx, source.ny, tmp[0] as number, tmp[1] as number);
     }
   }
   const result: SkyMap = { data: out, nx, ny, wcs: tw };

@@ -21,3 +21,23 @@ export function progressBar(label: string, total: number, initial = 0): Progress
   bar.start(total, initial);
   return { update: (done) => bar.update(done), stop: () => bar.stop() };
 }
+
+/**
+ * A progress callback for the estimators' `onProgress` (stage, done, total): one bar per stage,
+ * labelled `label: stage`, replaced when the stage changes; a no-op when stderr is not a TTY.
+ * Call the returned `stop` when the work is over.
+ */
+export function stageProgress(label: string): { onProgress: (stage: string, done: number, total: number) => void; stop: () => void } {
+  if (!process.stderr.isTTY) return { onProgress: () => undefined, stop: () => undefined };
+  let current: { stage: string; bar: Progress } | null = null;
+  return {
+    onProgress: (stage, done, total) => {
+      if (current === null || current.stage !== stage) {
+        current?.bar.stop();
+        current = { stage, bar: progressBar(`${label}: ${stage}`, total) };
+      }
+      current.bar.update(done + 1);
+    },
+    stop: () => current?.bar.stop(),
+  };
+}

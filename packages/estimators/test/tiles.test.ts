@@ -124,4 +124,21 @@ describe("tiled measure and search on an invented 3-band field", () => {
     for (let k = 1; k < cands.length; k++) expect(cands[k]!.snrRaw).toBeLessThanOrEqual(cands[k - 1]!.snrRaw);
     expect(() => joinTileSearches(tiles.length, parts.slice(0, 3))).toThrow(/tiles 3 of 4/);
   });
+
+  it("flags the clusters of a tile without data (outside the footprint) and goes on with the others", () => {
+    const holed = { ...stack, bands: stack.bands.map((b) => ({ ...b, data: b.data.map((v, p) => (p % n < 168 && Math.floor(p / n) < 168 ? NaN : v)) })) };
+    const tiles = planTiles(n, n, 0.5, { tileDeg: 1.1, marginArcmin: 20 });
+    const placement = placeClusters(holed, tiles, cat);
+    const parts = tiles.map((t) => measureTile(holed, cat, placement, t, (s, c) => measureClusters(s, c, opts)));
+    expect(parts.map((p) => p.noData)).toEqual([true, false, false, false]);
+    const joined = joinTileMeasurements(cat.length, parts);
+    for (const k of parts[0]!.rows) {
+      expect(joined[k]!.flags).toEqual(["masked"]);
+      expect(Number.isNaN(joined[k]!.y0)).toBe(true);
+    }
+    const far = joined[cat.findIndex((c) => c.id === "K33")]!;
+    expect(Math.abs(far.y0 - 3e-4)).toBeLessThan(5 * far.y0Err);
+    const sopts = { profile: gaussianShape(1), tszSed: sed, sizesArcmin: [1.2], maxIterations: 0, snrMin: 5 };
+    expect(searchTile(holed, tiles[0]!, sopts)).toEqual({ tile: 0, candidates: [], diagnostics: null, noData: true });
+  });
 });

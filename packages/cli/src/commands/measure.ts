@@ -31,6 +31,7 @@ import { parseShard, type Shard } from "../shard.js";
 import { collectTiles, readTileDirs, tileDirFor, type TileRun } from "../tiles/files.js";
 import { deprojectNames, deprojectSedsFor, measureStack, tilesOf, TILE_SEED_STRIDE, type CatalogueRow, type MeasureSettings, type TileOutput } from "../tiles/jobs.js";
 import { runTiles } from "../tiles/run.js";
+import { stageProgress } from "../progress.js";
 import { writeTiledSearchOutputs, type SearchMeta } from "./search.js";
 
 /** Options as commander hands them over. */
@@ -190,7 +191,7 @@ export async function writeTiledMeasureOutputs(out: string, json: boolean, meta:
   const parts = results as TileMeasurement<MeasureResult["diagnostics"] | null>[];
   const clusters = joinTileMeasurements(meta.rowCount, parts);
   const tiles = meta.tiles ?? [];
-  const diagnostics = { tiles: parts.map((p) => ({ tile: p.tile, core: tiles[p.tile]?.core, outer: tiles[p.tile]?.outer, clusters: p.rows.length, ...p.diagnostics })) };
+  const diagnostics = { tiles: parts.map((p) => ({ tile: p.tile, core: tiles[p.tile]?.core, outer: tiles[p.tile]?.outer, clusters: p.rows.length, noData: p.noData, ...p.diagnostics })) };
   await writeMeasureOutputs(out, json, meta, clusters, diagnostics);
 }
 
@@ -226,7 +227,13 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   const meta0 = { inputs, settings: settingsBlock(s, simPaths, tiling), warnings: stack.warnings, catalogProblems: catalog.problems, rowCount: rows.length };
   if (tiling === null) {
     progress(`umbra measure: ${rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}`);
-    const result = measureStack(stack, rows, s, noiseCovariance === undefined ? {} : { noiseCovariance });
+    const bars = stageProgress("umbra measure");
+    let result: ReturnType<typeof measureStack>;
+    try {
+      result = measureStack(stack, rows, s, { ...(noiseCovariance === undefined ? {} : { noiseCovariance }), onProgress: bars.onProgress });
+    } finally {
+      bars.stop();
+    }
     await writeMeasureOutputs(o.out, o.json === true, { ...meta0, tiles: null }, result.clusters, result.diagnostics);
     return;
   }

@@ -14,6 +14,7 @@ import { parseShard } from "../shard.js";
 import { tileDirFor, type TileRun } from "../tiles/files.js";
 import { deprojectNames, searchOptionsFor, tilesOf, type SearchSettings, type TileOutput } from "../tiles/jobs.js";
 import { runTiles } from "../tiles/run.js";
+import { stageProgress } from "../progress.js";
 import { writeCsvAtomic, writeSkyMapFits, writeTextAtomic, type CsvValue } from "@umbra/maps";
 import { VERSION } from "../version.js";
 import { finishTiles, jsonPathFor, jsonSafe, numberOption, progress, runKeyOf, sizesOption, tilingOption, workersOption } from "./measure.js";
@@ -81,9 +82,9 @@ export async function writeTiledSearchOutputs(out: string, json: boolean, meta: 
   const candidates = joinTileSearches(parts.length, parts);
   const tiles = meta.tiles ?? [];
   const diagnostics = {
-    searchedAreaDeg2: parts.reduce((a, p) => a + p.diagnostics.searchedAreaDeg2, 0),
+    searchedAreaDeg2: parts.reduce((a, p) => a + (p.diagnostics?.searchedAreaDeg2 ?? 0), 0),
     thresholdUses: "raw",
-    tiles: parts.map((p) => ({ tile: p.tile, core: tiles[p.tile]?.core, outer: tiles[p.tile]?.outer, candidates: p.candidates.length, ...p.diagnostics })),
+    tiles: parts.map((p) => ({ tile: p.tile, core: tiles[p.tile]?.core, outer: tiles[p.tile]?.outer, candidates: p.candidates.length, noData: p.noData, ...p.diagnostics })),
   };
   await writeSearchOutputs(out, json, meta, candidates, diagnostics, Number(meta.settings["snrMin"]));
 }
@@ -126,10 +127,17 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
     return;
   }
   const snrMaps: { theta: number; map: Float32Array }[] = [];
-  const result = searchClusters(stack, {
-    ...searchOptionsFor(stack, s),
-    ...(o.snrMaps === undefined ? {} : { onSnrMap: (theta: number, m: Float64Array) => snrMaps.push({ theta, map: Float32Array.from(m) }) }),
-  });
+  const bars = stageProgress("umbra search");
+  let result: ReturnType<typeof searchClusters>;
+  try {
+    result = searchClusters(stack, {
+      ...searchOptionsFor(stack, s),
+      onProgress: bars.onProgress,
+      ...(o.snrMaps === undefined ? {} : { onSnrMap: (theta: number, m: Float64Array) => snrMaps.push({ theta, map: Float32Array.from(m) }) }),
+    });
+  } finally {
+    bars.stop();
+  }
   if (o.snrMaps !== undefined) {
     await mkdir(o.snrMaps, { recursive: true });
     for (const m of snrMaps) {

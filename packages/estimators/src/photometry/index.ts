@@ -1,5 +1,5 @@
 export { measureClusters, yOverY0Arcmin2, DEFAULT_SCAN_SIZES_ARCMIN } from "./measure.js";
-export type { CatalogueCluster, ClusterPhysics, SedProvider, MeasureOptions, ScanPoint, ClusterMeasurement, MeasureDiagnostics, MeasureResult } from "./types.js";
+export type { CatalogueCluster, ClusterPhysics, SedProvider, MeasureOptions, ScanPoint, ClusterMeasurement, MeasureDiagnostics, MeasureResult, ProgressCallback } from "./types.js";
 export { prepareStack } from "./prepare.js";
 export type { PrepareOptions, PreparedStack } from "./prepare.js";
 export { paintClusters } from "./model.js";

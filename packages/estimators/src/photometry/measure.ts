@@ -141,10 +141,11 @@ function fitForCleaning(t: Target): boolean {
   return !isFatal(t.flags) || (t.flags.includes("edge") && !t.flags.includes("off_map") && !t.flags.includes("masked"));
 }
 
-function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[], scanSizes: readonly number[]): (TargetFit | null)[] {
+function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[], scanSizes: readonly number[], onProgress: MeasureOptions["onProgress"]): (TargetFit | null)[] {
   const scratch = createFitScratch(bank);
   const cache = new Map<string, Float64Array[]>();
-  return targets.map((t) => {
+  return targets.map((t, k) => {
+    onProgress?.("first fit", k, targets.length);
     if (!fitForCleaning(t)) return null;
     let comb = cache.get(t.sedKey);
     if (comb === undefined) {
@@ -212,7 +213,7 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
     buildFilterBank({ layout: prep.plan.layout, geometry: stack.geometry, ells: prep.ells, spectra, beams, covariance: cov, deproject: opts.deproject });
   let cov = opts.noiseCovariance ?? covFrom(prep.spectra);
   let bank = bankFor(cov);
-  let fits = fitAll(bank, table, targets, scanSizes);
+  let fits = fitAll(bank, table, targets, scanSizes, opts.onProgress);
   // Each iteration: subtract every cluster's current model, re-estimate the covariance from the
   // cleaned maps (Zubeldia et al. 2023), and update every cluster by a fit on the residual:
   // a ← a + fit(data − Σ models). The update is one Jacobi step of the joint least-squares fit of
@@ -235,6 +236,7 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
     const combinedCache = new Map<string, Float64Array[]>();
     lastChange = 0;
     fits = fits.map((f, k) => {
+      opts.onProgress?.(`cleaning ${it + 1}`, k, fits.length);
       if (f === null) return null;
       const t = targets[k] as Target;
       let comb = combinedCache.get(t.sedKey);
@@ -285,6 +287,7 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
   const randoms = (opts.randomCount ?? 300) > 0 ? randomErrors(prep, maxIt > 0 ? rewhitenBank(bank, cleaned) : bank, table, targets, fits, opts) : [];
   const scratch = createFitScratch(bank);
   const results = targets.map((t, k) => {
+    opts.onProgress?.("results", k, targets.length);
     const cache = new Map<number, { yArcmin2: number; yErrArcmin2: number }>();
     const nodeTable = nodeTableFor(bank, t);
     const refit = (th: number) => {

@@ -77,7 +77,12 @@ export interface MeasureOptions {
   readonly covarianceOptions?: CovarianceOptions;
   /** A covariance from noise-only simulations to use instead of the data estimate (no iteration then). */
   readonly noiseCovariance?: BandCovariance;
+  /** Called as work advances: stage name, items done, items in the stage (e.g. for a progress bar). */
+  readonly onProgress?: ProgressCallback;
 }
+
+/** Progress of a long loop: `done` of `total` items of the named stage. */
+export type ProgressCallback = (stage: string, done: number, total: number) => void;
 
 /** Y and its error at one scanned size. */
 export interface ScanPoint {

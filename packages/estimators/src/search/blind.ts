@@ -20,6 +20,7 @@ import type { BandStack } from "../stack/types.js";
 import { debiasedSnr } from "./debias.js";
 import { deblendPeaks, findPeaks } from "./peaks.js";
 import { boxContains, type PixelBox } from "../tiles/plan.js";
+import type { ProgressCallback } from "../photometry/types.js";
 
 /** Default size grid: 15 sizes log-spaced from 0.5 to 10 arcmin. */
 export const DEFAULT_SEARCH_SIZES_ARCMIN: readonly number[] = Array.from({ length: 15 }, (_, i) => 0.5 * Math.pow(20, i / 14));
@@ -51,6 +52,8 @@ export interface SearchOptions {
    * Used by tiled searches (../tiles/search.ts). Default: the whole map.
    */
   readonly reportBox?: PixelBox;
+  /** Called as work advances: stage name, items done, items in the stage (e.g. for a progress bar). */
+  readonly onProgress?: ProgressCallback;
 }
 
 /** One blind candidate. */
@@ -108,6 +111,7 @@ function searchPass(
   tszSed: Float64Array,
   onSnrMap: SearchOptions["onSnrMap"],
   noise: WhiteNoiseModel | null,
+  onSize: (k: number) => void,
 ): { raws: Raw[]; sigmas: number[] } {
   const { nx, ny } = prep.stack;
   const npix = nx * ny;
@@ -118,6 +122,7 @@ function searchPass(
   const filter = prepareSedFilter(bank, tszSed);
   const sigmas: number[] = [];
   sizes.forEach((th, k) => {
+    onSize(k);
     const sigma = filteredMap(bank, prep.plan, table, th * RAD_PER_ARCMIN, filter, map, scratch);
     sigmas.push(sigma);
     const shares = noise === null ? null : whiteNoiseShares(bank, table, th * RAD_PER_ARCMIN, tszSed, sigma, noise.meanVariance);
@@ -183,7 +188,8 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   const nodeTable = (b: FilterBank) => sedNodeTable(b, [opts.tszSed]);
   for (let it = 0; it <= maxIt; it++) {
     const last = it === maxIt;
-    const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined, noise);
+    const onSize = (k: number): void => opts.onProgress?.(`pass ${it + 1}/${maxIt + 1}`, k, sizes.length);
+    const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined, noise, onSize);
     sigmas = pass.sigmas;
     const kept = deblendPeaks(pass.raws, (k) => Math.max(sizes[k.sizeIndex] as number, maxBeam) / pixArcmin);
     const scratch = createFitScratch(bank);

@@ -9,7 +9,7 @@ import { UmbraError } from "@umbra/core";
 import { worldToPixel } from "@umbra/maps";
 import type { CatalogueCluster, ClusterMeasurement } from "../photometry/types.js";
 import type { BandStack } from "../stack/types.js";
-import { boxContains, cutStack, owningTile, type SkyTile } from "./plan.js";
+import { boxContains, cutStack, hasData, owningTile, type SkyTile } from "./plan.js";
 
 /** Where each catalogue cluster falls: full-map pixel position and owning tile. */
 export interface ClusterPlacement {
@@ -24,7 +24,21 @@ export interface TileMeasurement<D> {
   readonly tile: number;
   readonly rows: readonly number[];
   readonly clusters: readonly ClusterMeasurement[];
-  readonly diagnostics: D;
+  /** The estimator's diagnostics (null for a tile without data). */
+  readonly diagnostics: D | null;
+  /** True when no pixel of the tile had data in every band (its clusters are flagged, not measured). */
+  readonly noData: boolean;
+}
+
+/** A cluster that could not be measured: NaNs and `flag` (for clusters of a tile without data). */
+function unmeasured(c: CatalogueCluster, px: number, py: number, flag: "masked" | "off_map"): ClusterMeasurement {
+  const hasTheta = c.theta500Arcmin != null && (c.theta500Arcmin as number) > 0;
+  return {
+    id: c.id, raDeg: c.raDeg, decDeg: c.decDeg, px, py,
+    theta500Arcmin: hasTheta ? (c.theta500Arcmin as number) : NaN, thetaSource: hasTheta ? "catalog" : "none",
+    y0: NaN, y0Err: NaN, yArcmin2: NaN, yErrArcmin2: NaN, snr: NaN, y0ErrRandom: NaN, teKeVUsed: NaN,
+    vLosKms: NaN, vLosErrKms: NaN, yMpc2: NaN, yErrMpc2: NaN, m500Msun: NaN, m500ErrMsun: NaN, flags: [flag], scan: null,
+  };
 }
 
 /** Pixel positions (0-based, full map) and owning tiles of catalogue clusters. */
@@ -61,6 +75,17 @@ export function measureTile<D>(
     if (placement.owner[k] === tile.index || boxContains(tile.outer, placement.px[k] as number, placement.py[k] as number)) chosen.push(k);
   }
   const sub = cutStack(stack, tile.outer);
+  if (!hasData(sub)) {
+    // a tile outside the survey footprint: its clusters are on missing data (or off the map)
+    const rows = chosen.filter((k) => placement.owner[k] === tile.index);
+    const out = rows.map((k) => {
+      const px = placement.px[k] as number;
+      const py = placement.py[k] as number;
+      const on = Number.isFinite(px) && Number.isFinite(py) && px >= -0.5 && py >= -0.5 && px <= stack.nx - 0.5 && py <= stack.ny - 0.5;
+      return unmeasured(clusters[k] as CatalogueCluster, px, py, on ? "masked" : "off_map");
+    });
+    return { tile: tile.index, rows, clusters: out, diagnostics: null, noData: true };
+  }
   const res = measure(sub, chosen.map((k) => clusters[k] as CatalogueCluster));
   const rows: number[] = [];
   const out: ClusterMeasurement[] = [];
@@ -70,7 +95,7 @@ export function measureTile<D>(
     rows.push(k);
     out.push({ ...m, px: m.px + tile.outer.x0, py: m.py + tile.outer.y0 });
   });
-  return { tile: tile.index, rows, clusters: out, diagnostics: res.diagnostics };
+  return { tile: tile.index, rows, clusters: out, diagnostics: res.diagnostics, noData: false };
 }
 
 /** Join tile measurements into catalogue order; NOT_FOUND naming the rows no tile reported. */

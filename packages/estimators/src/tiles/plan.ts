@@ -119,3 +119,19 @@ export function cutStack(stack: BandStack, box: PixelBox): BandStack {
     inputs: stack.inputs,
   };
 }
+
+/** Whether some pixel of `stack` has data in every band (finite and not masked), as the estimators need. */
+export function hasData(stack: BandStack): boolean {
+  const npix = stack.nx * stack.ny;
+  for (let p = 0; p < npix; p++) {
+    let ok = true;
+    for (const b of stack.bands) {
+      if (!Number.isFinite(b.data[p] as number) || (b.mask !== null && b.mask[p] === 0)) {
+        ok = false;
+        break;
+      }
+    }
+    if (ok) return true;
+  }
+  return false;
+}

@@ -6,21 +6,25 @@
 import { UmbraError } from "@umbra/core";
 import { searchClusters, type Candidate, type SearchOptions, type SearchResult } from "../search/blind.js";
 import type { BandStack } from "../stack/types.js";
-import { cutStack, type SkyTile } from "./plan.js";
+import { cutStack, hasData, type SkyTile } from "./plan.js";
 
-/** One tile's search: its candidates (full-map pixels, ids not yet given) and diagnostics. */
+/** One tile's search: its candidates (full-map pixels, ids not yet given) and diagnostics (null: no data in the tile). */
 export interface TileSearch {
   readonly tile: number;
   readonly candidates: readonly Candidate[];
-  readonly diagnostics: SearchResult["diagnostics"];
+  readonly diagnostics: SearchResult["diagnostics"] | null;
+  /** True when no pixel of the tile had data in every band. */
+  readonly noData: boolean;
 }
 
 /** Search one tile's outer box and keep the candidates in its core (pixel positions on the full map). */
 export function searchTile(stack: BandStack, tile: SkyTile, opts: SearchOptions): TileSearch {
   const o = tile.outer;
   const core = { x0: tile.core.x0 - o.x0, x1: tile.core.x1 - o.x0, y0: tile.core.y0 - o.y0, y1: tile.core.y1 - o.y0 };
-  const res = searchClusters(cutStack(stack, o), { ...opts, reportBox: core });
-  return { tile: tile.index, candidates: res.candidates.map((c) => ({ ...c, px: c.px + o.x0, py: c.py + o.y0 })), diagnostics: res.diagnostics };
+  const sub = cutStack(stack, o);
+  if (!hasData(sub)) return { tile: tile.index, candidates: [], diagnostics: null, noData: true };
+  const res = searchClusters(sub, { ...opts, reportBox: core });
+  return { tile: tile.index, candidates: res.candidates.map((c) => ({ ...c, px: c.px + o.x0, py: c.py + o.y0 })), diagnostics: res.diagnostics, noData: false };
 }
 
 /** All tiles' candidates sorted by raw S/N (ties by tile, then tile order), numbered `prefix-0001`…; NOT_FOUND when a tile is missing. */

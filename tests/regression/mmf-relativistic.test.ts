@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { loadScenario, simulateField } from "../../packages/simulate/src/index.js";
-import { stackFromSimulatedField } from "../../packages/cli/src/commands/regress.js";
+import { runRealisation, stackFromSimulatedField } from "../../packages/cli/src/commands/regress.js";
 import { a10ProfileShape, measureClusters, stackSedProvider } from "../../packages/estimators/src/index.js";
 
 describe("relativistic tSZ response", () => {
@@ -29,5 +29,9 @@ describe("relativistic tSZ response", () => {
     const meanRel = fracRel.reduce((a, b) => a + b, 0) / fracRel.length;
     expect(meanNon).toBeLessThan(meanRel - 0.03);
     expect(rel.clusters.every((c) => c.teKeVUsed > 0)).toBe(true);
+    // a regression realisation of a relativistically painted sky measures with the true kTe too
+    const run = runRealisation(field, { search: false, randomCount: 0 });
+    expect(run.forced.clusters.map((c) => c.teKeVUsed)).toEqual(truth.map((c) => c.kTeKeV));
+    expect(run.forced.clusters.map((c) => c.yArcmin2)).toEqual(rel.clusters.map((c) => c.yArcmin2));
   }, 240_000);
 });

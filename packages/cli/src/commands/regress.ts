@@ -70,10 +70,13 @@ export function runRealisation(field: SimulatedField, opts: RealisationOptions =
   // every cluster in the field is passed on (the ones near the edge are fitted for the covariance
   // cleaning and come back flagged); the statistics use those away from the edge
   const truth = field.clusters.filter((c) => c.inField && !c.nearEdge);
+  // measured with the tSZ spectrum the sky was painted with: relativistic at each cluster's true kTe
+  // when the scenario asks for it, non-relativistic otherwise
+  const relativistic = field.scenario.sky.clusters?.relativistic === true;
   const forced = measureClusters(
     stack,
-    field.clusters.filter((c) => c.inField).map((c) => ({ id: c.id, raDeg: c.raDeg, decDeg: c.decDeg, theta500Arcmin: c.theta500Arcmin, teKeV: null, z: null, m500Msun: null })),
-    { profile: a10ProfileShape(), seds: stackSedProvider(stack), relativistic: false, randomCount: opts.randomCount ?? 200, maxIterations: opts.maxIterations ?? 4 },
+    field.clusters.filter((c) => c.inField).map((c) => ({ id: c.id, raDeg: c.raDeg, decDeg: c.decDeg, theta500Arcmin: c.theta500Arcmin, teKeV: relativistic ? c.kTeKeV : null, z: null, m500Msun: null })),
+    { profile: a10ProfileShape(), seds: stackSedProvider(stack), relativistic, randomCount: opts.randomCount ?? 200, maxIterations: opts.maxIterations ?? 4 },
   );
   const search = opts.search === false
     ? null

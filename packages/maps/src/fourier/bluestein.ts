@@ -9,6 +9,7 @@
  * the chirp keeps full precision for large n.
  */
 import { MixedRadixLanes, nextSmooth, type LaneFft } from "./mixed-radix.js";
+import { WasmLanes, laneModule } from "./wasm-lanes.js";
 
 /** Bluestein chirp-z FFT, batched over lanes, for any n ≥ 1 (used when n is not 5-smooth). Not re-entrant. */
 export class BluesteinLanes implements LaneFft {
@@ -100,10 +101,14 @@ export class BluesteinLanes implements LaneFft {
   }
 }
 
-/** The batched kernel for length n: mixed radix when n is 5-smooth, Bluestein otherwise. */
-export function makeLaneFft(n: number, maxLanes: number): LaneFft {
+/**
+ * The batched kernel for length n: mixed radix when n is 5-smooth (in WebAssembly SIMD where
+ * available, else the scalar JS kernel; `useWasm = false` forces the latter), Bluestein otherwise.
+ */
+export function makeLaneFft(n: number, maxLanes: number, useWasm = true): LaneFft {
   if (!Number.isInteger(n) || n < 1) throw new RangeError(`FFT length must be a positive integer, got ${n}`);
-  return nextSmooth(n) === n ? new MixedRadixLanes(n, maxLanes) : new BluesteinLanes(n, maxLanes);
+  if (nextSmooth(n) !== n) return new BluesteinLanes(n, maxLanes);
+  return useWasm && laneModule() !== null ? new WasmLanes(n, maxLanes) : new MixedRadixLanes(n, maxLanes);
 }
 
 /** A single complex 1-D FFT of length n (one lane), for callers outside the 2-D driver. Not re-entrant. */

@@ -29,6 +29,8 @@ export interface LaneFft {
   readonly n: number;
   readonly maxLanes: number;
   transform(src: Float64Array, so: number, ses: number, dst: Float64Array, dso: number, des: number, lanes: number, dir: 1 | -1): void;
+  /** A buffer of 2·n·maxLanes doubles that this kernel transforms in place without copying, when used compactly (element stride 2·lanes, offset 0). */
+  laneBuffer?(): Float64Array;
 }
 
 /** Radices of a 5-smooth n in the order the stages run (4s first, then 2, 3, 5); null when n is not 5-smooth. */

@@ -22,6 +22,7 @@
 import { UmbraError } from "@umbra/core";
 import { makeLaneFft } from "./bluestein.js";
 import type { LaneFft } from "./mixed-radix.js";
+import { WasmLanes, laneModule } from "./wasm-lanes.js";
 import { halfWidth, makeRowMajorLayout } from "./layout.js";
 import type { Rfft2Plan, SpectrumLayout } from "./types.js";
 
@@ -45,9 +46,17 @@ export function checkLength(name: string, buf: ArrayLike<number>, len: number): 
  */
 const LANE_DOUBLES = 1 << 16;
 
-/** Lanes per batch for length n: as many as fit in `laneDoubles`, at least 1, at most min(cap, 32). */
-export function laneCount(n: number, cap: number, laneDoubles = LANE_DOUBLES): number {
-  return Math.max(1, Math.min(cap, 32, Math.floor(laneDoubles / (2 * n))));
+/**
+ * Most lanes per batch: 32 for the JS kernel (tuned with it), 128 for the wasm one, whose column
+ * pass copies runs of 2·lanes doubles between the spectrum and wasm memory (longer runs, fewer
+ * copy calls; docs/fft.md).
+ */
+const MAX_LANES_JS = 32;
+const MAX_LANES_WASM = 128;
+
+/** Lanes per batch for length n: as many as fit in `laneDoubles`, at least 1, at most min(cap, maxLanes). */
+export function laneCount(n: number, cap: number, laneDoubles = LANE_DOUBLES, maxLanes = MAX_LANES_JS): number {
+  return Math.max(1, Math.min(cap, maxLanes, Math.floor(laneDoubles / (2 * n))));
 }
 
 /** Float64 plan for one (nx, ny); see the module comment. Holds buffers: one plan per thread. */
@@ -64,18 +73,19 @@ export class Rfft2PlanF64 implements Rfft2Plan {
   private readonly edgeBuf: Float64Array; // one column (ny complex) for kx = 0 and nx/2 in the inverse
 
   /** `laneDoubles` (internal tuning knob): target size of a lane buffer in doubles. */
-  constructor(nx: number, ny: number, laneDoubles = LANE_DOUBLES) {
+  constructor(nx: number, ny: number, laneDoubles = LANE_DOUBLES, useWasm = true) {
     checkDimension("nx", nx);
     checkDimension("ny", ny);
     this.nx = nx;
     this.ny = ny;
     this.nh = halfWidth(nx);
     this.layout = makeRowMajorLayout(nx, ny);
-    this.rowLanes = laneCount(nx, Math.ceil(ny / 2), laneDoubles);
-    this.colLanes = laneCount(ny, this.nh, laneDoubles);
-    this.rowFft = makeLaneFft(nx, this.rowLanes);
-    this.colFft = makeLaneFft(ny, this.colLanes);
-    this.rowBuf = new Float64Array(2 * nx * this.rowLanes);
+    const maxLanes = useWasm && laneModule() !== null ? MAX_LANES_WASM : MAX_LANES_JS;
+    this.rowLanes = laneCount(nx, Math.ceil(ny / 2), laneDoubles, maxLanes);
+    this.colLanes = laneCount(ny, this.nh, laneDoubles, maxLanes);
+    this.rowFft = makeLaneFft(nx, this.rowLanes, useWasm);
+    this.colFft = makeLaneFft(ny, this.colLanes, useWasm);
+    this.rowBuf = this.rowFft.laneBuffer?.() ?? new Float64Array(2 * nx * this.rowLanes);
     this.edgeBuf = new Float64Array(2 * ny);
   }
 
@@ -83,6 +93,12 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     const { nx, ny, nh } = this;
     checkLength("map", map, nx * ny);
     checkLength("spectrum", spectrum, this.layout.spectrumLength);
+    const rf = this.rowFft;
+    if (rf instanceof WasmLanes) {
+      for (let y0 = 0; y0 < ny; y0 += 2 * this.rowLanes) rf.forwardRows(map, spectrum, y0, Math.min(2 * this.rowLanes, ny - y0));
+      this.columns(spectrum, spectrum, -1);
+      return;
+    }
     const buf = this.rowBuf;
     const rowLen = 2 * nh; // doubles per spectrum row
     for (let y0 = 0; y0 < ny; y0 += 2 * this.rowLanes) {
@@ -144,8 +160,13 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     checkLength("spectrum", spectrum, this.layout.spectrumLength);
     checkLength("map", map, nx * ny);
     this.columnsIntoMap(spectrum, map);
-    const buf = this.rowBuf;
     const scale = 1 / (nx * ny);
+    const rf = this.rowFft;
+    if (rf instanceof WasmLanes) {
+      for (let y0 = 0; y0 < ny; y0 += 2 * this.rowLanes) rf.inverseRows(map, y0, Math.min(2 * this.rowLanes, ny - y0), scale);
+      return;
+    }
+    const buf = this.rowBuf;
     const even = nx % 2 === 0;
     const lastInner = even ? nh - 2 : nh - 1; // last kx with a full complex value in a packed row
     const off = even ? 0 : -1; // packed row: A_k (1 ≤ k ≤ lastInner) at 2k + off

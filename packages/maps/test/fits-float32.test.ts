@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { isUmbraError } from "@umbra/core";
-import { formatCard, parseFitsImage, readFitsImage, readFitsLayout } from "../src/fits/index.js";
+import { formatCard, parseFitsImage, readFitsImage, readFitsLayout, type AnyReadOptions } from "../src/fits/index.js";
 import { simdSwapAvailable, swapInPlace, SWAP_CHUNK_BYTES, type SwapWidth } from "../src/fits/byteswap.js";
 import { EXPECTED, FIXTURES, expectedPixels, fixtureBytes } from "./fits-support.js";
 
@@ -244,6 +244,16 @@ describe("byte swap", () => {
         else node.swap64();
         expect(Buffer.from(ours).equals(node)).toBe(true);
       }
+    }
+  });
+});
+
+describe("choosing the output type at run time", () => {
+  it("an options value typed as either set gives the matching array type", async () => {
+    for (const dtype of ["float32", "float64"] as const) {
+      const options: AnyReadOptions = dtype === "float32" ? { dtype } : { dtype };
+      const img = await readFitsImage(`${FIXTURES}f32_nan.fits`, options);
+      expect(img.map.data).toBeInstanceOf(dtype === "float32" ? Float32Array : Float64Array);
     }
   });
 });

@@ -11,7 +11,7 @@ export type { HduSelector } from "./select.js";
 export { memorySource, fileSource } from "./source.js";
 export type { ByteSource } from "./source.js";
 export { readFitsImage, readFitsImageFromSource, parseFitsImage, readFitsLayout, parseFitsLayout, openFitsSource, isGzip } from "./read.js";
-export type { ReadFitsOptions, ReadFitsFloat32Options, SkyMapFloat32, FitsImage } from "./read.js";
+export type { ReadFitsOptions, ReadFitsFloat32Options, SkyMapFloat32, FitsImage, AnyReadOptions, AnyFitsImage } from "./read.js";
 export { formatCard, formatValueCard, formatCommentary, formatReal } from "./format.js";
 export type { CardInput, ValueCardInput, CommentaryCardInput } from "./format.js";
 export { encodeFits, writeFits, writeSkyMapFits, provenanceCards } from "./write.js";

@@ -136,8 +136,10 @@ function checkFill(source: ByteSource, layout: HduLayout, file: string): void {
   }
 }
 
-type AnyReadOptions = ReadFitsOptions | ReadFitsFloat32Options;
-type AnyFitsImage = FitsImage | FitsImage<SkyMapFloat32>;
+/** Either option set (for callers that choose the output type at run time). */
+export type AnyReadOptions = ReadFitsOptions | ReadFitsFloat32Options;
+/** The result of a read whose output type is chosen at run time. */
+export type AnyFitsImage = FitsImage | FitsImage<SkyMapFloat32>;
 
 /**
  * As {@link readFitsImage}, from an open {@link ByteSource} (see {@link openFitsSource}), so several
@@ -145,6 +147,7 @@ type AnyFitsImage = FitsImage | FitsImage<SkyMapFloat32>;
  */
 export async function readFitsImageFromSource(source: ByteSource, file: string, options: ReadFitsFloat32Options): Promise<FitsImage<SkyMapFloat32>>;
 export async function readFitsImageFromSource(source: ByteSource, file: string, options?: ReadFitsOptions): Promise<FitsImage>;
+export async function readFitsImageFromSource(source: ByteSource, file: string, options?: AnyReadOptions): Promise<AnyFitsImage>;
 export async function readFitsImageFromSource(source: ByteSource, file: string, options: AnyReadOptions = {}): Promise<AnyFitsImage> {
   return readSelected(source, file, options);
 }
@@ -235,6 +238,7 @@ async function readSelected(source: ByteSource, file: string, options: AnyReadOp
  */
 export async function readFitsImage(path: string, options: ReadFitsFloat32Options): Promise<FitsImage<SkyMapFloat32>>;
 export async function readFitsImage(path: string, options?: ReadFitsOptions): Promise<FitsImage>;
+export async function readFitsImage(path: string, options?: AnyReadOptions): Promise<AnyFitsImage>;
 export async function readFitsImage(path: string, options: AnyReadOptions = {}): Promise<AnyFitsImage> {
   const source = openFitsSource(path);
   try {
@@ -247,6 +251,7 @@ export async function readFitsImage(path: string, options: AnyReadOptions = {}):
 /** As {@link readFitsImage}, for a FITS file already in memory; `file` names it in errors. */
 export async function parseFitsImage(bytes: Uint8Array, file: string, options: ReadFitsFloat32Options): Promise<FitsImage<SkyMapFloat32>>;
 export async function parseFitsImage(bytes: Uint8Array, file: string, options?: ReadFitsOptions): Promise<FitsImage>;
+export async function parseFitsImage(bytes: Uint8Array, file: string, options?: AnyReadOptions): Promise<AnyFitsImage>;
 export async function parseFitsImage(bytes: Uint8Array, file: string, options: AnyReadOptions = {}): Promise<AnyFitsImage> {
   return readSelected(bytesSource(bytes, file), file, options);
 }

@@ -36,6 +36,8 @@ export interface FitsReadBenchRow {
   referenceMs: number | null;
   /** umbraMs / referenceMs, or null. */
   ratio: number | null;
+  /** For float32 rows: astropy's `.data.astype(float32)` in native byte order (umbra's output exactly), ms; else null. */
+  referenceNativeMs: number | null;
   /** First read of this kind in the process (JIT and page faults included), umbra and the reference. */
   umbraFirstMs: number;
   referenceFirstMs: number | null;
@@ -44,6 +46,7 @@ export interface FitsReadBenchRow {
 
 interface AstropyTimes {
   data: { first_ms: number; median_ms: number };
+  native_float32: { first_ms: number; median_ms: number };
   float64: { first_ms: number; median_ms: number };
 }
 
@@ -148,6 +151,7 @@ export async function benchFitsRead(options: { quick?: boolean; hugetlb?: boolea
             reference: f32 ? "astropy `.data`" : "astropy `.data.astype(float64)`",
             referenceMs: r?.median_ms ?? null,
             ratio: r === null ? null : t.median / r.median_ms,
+            referenceNativeMs: f32 && ref !== null ? ref.native_float32.median_ms : null,
             umbraFirstMs: t.first,
             referenceFirstMs: r?.first_ms ?? null,
             runs,

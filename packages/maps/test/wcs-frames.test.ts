@@ -8,15 +8,18 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import fc from "fast-check";
 import { isUmbraError } from "@umbra/core";
 import { planPixelMapping, reproject, targetToSourcePixel } from "../src/reproject/index.js";
 import {
   frameRotation,
   galacticToIcrsDeg,
   icrsToGalacticDeg,
+  multiply3,
   pixelToWorld,
   pixelToWorldArray,
   rotateLonLat,
+  transpose3,
   wcsFromHeader,
   type ConvertibleFrame,
 } from "../src/wcs/index.js";
@@ -210,5 +213,31 @@ describe("reprojection between Galactic and ICRS grids", () => {
       }
     }
     expect(inner).toAllClose(want, { rtol: 0, atol: 2e-3 });
+  });
+});
+
+describe("frame rotation properties", () => {
+  it("rotations are orthonormal and compose: R(a→c) = R(b→c) · R(a→b) to 1e-15", () => {
+    for (const a of FRAMES) {
+      for (const b of FRAMES) {
+        const rab = frameRotation(spec(a), spec(b));
+        const rrt = multiply3(rab, transpose3(rab));
+        expect([...rrt]).toAllClose([1, 0, 0, 0, 1, 0, 0, 0, 1], { rtol: 0, atol: 1e-15 });
+        for (const c of FRAMES) {
+          expect([...multiply3(frameRotation(spec(b), spec(c)), rab)]).toAllClose([...frameRotation(spec(a), spec(c))], { rtol: 0, atol: 1e-15 });
+        }
+      }
+    }
+  });
+
+  it("any position taken ICRS → Galactic → ICRS returns within 1e-12 deg (fast-check, 500 positions)", () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 360, noNaN: true, maxExcluded: true }), fc.double({ min: -90, max: 90, noNaN: true }), (ra, dec) => {
+        const g = icrsToGalacticDeg(ra, dec);
+        const r = galacticToIcrsDeg(g.lDeg, g.bDeg);
+        return separationDeg(r.raDeg, r.decDeg, ra, dec) < 1e-12 && g.bDeg >= -90 && g.bDeg <= 90 && g.lDeg >= 0 && g.lDeg < 360;
+      }),
+      { numRuns: 500, seed: 20261202 },
+    );
   });
 });

@@ -46,6 +46,9 @@ export function checkLength(name: string, buf: ArrayLike<number>, len: number): 
  */
 const LANE_DOUBLES = 1 << 16;
 
+/** Column lane budget of the wasm path (doubles): long copy runs matter more there (docs/fft.md). */
+const COL_LANE_DOUBLES = 1 << 20;
+
 /**
  * Most lanes per batch: 32 for the JS kernel (tuned with it), 128 for the wasm one, whose column
  * pass copies runs of 2·lanes doubles between the spectrum and wasm memory (longer runs, fewer
@@ -72,8 +75,12 @@ export class Rfft2PlanF64 implements Rfft2Plan {
   private readonly rowBuf: Float64Array;
   private readonly edgeBuf: Float64Array; // one column (ny complex) for kx = 0 and nx/2 in the inverse
 
-  /** `laneDoubles` (internal tuning knob): target size of a lane buffer in doubles. */
-  constructor(nx: number, ny: number, laneDoubles = LANE_DOUBLES, useWasm = true) {
+  /**
+   * Internal tuning knobs: `laneDoubles`, the target size of a row lane buffer in doubles;
+   * `useWasm = false` forces the scalar JS kernel; `colLaneDoubles`, the same target for the column
+   * pass (default: COL_LANE_DOUBLES with the wasm kernel, `laneDoubles` with the JS one).
+   */
+  constructor(nx: number, ny: number, laneDoubles = LANE_DOUBLES, useWasm = true, colLaneDoubles?: number) {
     checkDimension("nx", nx);
     checkDimension("ny", ny);
     this.nx = nx;
@@ -82,7 +89,8 @@ export class Rfft2PlanF64 implements Rfft2Plan {
     this.layout = makeRowMajorLayout(nx, ny);
     const maxLanes = useWasm && laneModule() !== null ? MAX_LANES_WASM : MAX_LANES_JS;
     this.rowLanes = laneCount(nx, Math.ceil(ny / 2), laneDoubles, maxLanes);
-    this.colLanes = laneCount(ny, this.nh, laneDoubles, maxLanes);
+    const wasm = maxLanes === MAX_LANES_WASM;
+    this.colLanes = laneCount(ny, this.nh, colLaneDoubles ?? (wasm ? COL_LANE_DOUBLES : laneDoubles), maxLanes);
     this.rowFft = makeLaneFft(nx, this.rowLanes, useWasm);
     this.colFft = makeLaneFft(ny, this.colLanes, useWasm);
     this.rowBuf = this.rowFft.laneBuffer?.() ?? new Float64Array(2 * nx * this.rowLanes);

@@ -5,7 +5,7 @@
  * Run: `npx tsx tests/bench/fft.ts [--quick]` (timings) or `npx tsx tests/bench/fft.ts --memory` (memory
  * only, in its own process), both print JSON; or import
  * `benchFft` from another script. Compare with `python3 tests/bench/fft_numpy.py` run on the same
- * quiet machine. Timings are medians over several runs after one warm-up.
+ * quiet machine. Timings are medians over several runs after three warm-up calls (numpy's too).
  */
 import { pathToFileURL } from "node:url";
 import { createRfft2PlanFloat32, getRfft2Plan } from "../../packages/maps/src/fourier/index.js";
@@ -44,9 +44,12 @@ function runsFor(nx: number, ny: number, quick: boolean): number {
   return nx * ny >= 4096 * 4096 ? 5 : 11;
 }
 
-/** Median wall-clock and process-CPU seconds of `runs` calls of `roundTrip` after one warm-up call. */
+/** Warm-up calls before timing: V8 optimises JS and tiers wasm up during the first one or two calls. */
+const WARM_UP = 3;
+
+/** Median wall-clock and process-CPU seconds of `runs` calls of `roundTrip` after WARM_UP warm-up calls. */
 function timeRoundTrip(roundTrip: () => void, runs: number): { wall: number; cpu: number } {
-  roundTrip();
+  for (let w = 0; w < WARM_UP; w++) roundTrip();
   const times: number[] = [];
   const cpu: number[] = [];
   for (let r = 0; r < runs; r++) {

@@ -17,6 +17,10 @@ import { UmbraError } from "@umbra/core";
 import type { PffftModule } from "@echogarden/pffft-wasm/simd";
 import { checkDimension, checkLength } from "./rfft2-f64.js";
 import { makeTransposedLayout } from "./layout.js";
+import { makeTransposer, type Transposer } from "./wasm-transpose.js";
+import { readFileSync } from "node:fs";
+import { createRequire } from "node:module";
+import { dirname, join } from "node:path";
 import type { Rfft2PlanF32, SpectrumLayout } from "./types.js";
 
 const PFFFT_FORWARD = 0;
@@ -24,11 +28,50 @@ const PFFFT_BACKWARD = 1;
 const PFFFT_REAL = 0;
 const PFFFT_COMPLEX = 1;
 
-let modulePromise: Promise<PffftModule> | null = null;
+/** The PFFFT module and, when they could be built, our wasm transposes bound to its memory. */
+interface Loaded {
+  mod: PffftModule;
+  transposer: Transposer | null;
+}
 
-function loadPffft(): Promise<PffftModule> {
+let modulePromise: Promise<Loaded> | null = null;
+
+/** The first WebAssembly.Memory among a wasm instance's exports. */
+function exportedMemory(exports: Record<string, unknown>): object | null {
+  const Memory = (globalThis as unknown as { WebAssembly?: { Memory: abstract new (...a: never[]) => object } }).WebAssembly?.Memory;
+  if (Memory === undefined) return null;
+  for (const v of Object.values(exports)) if (v instanceof Memory) return v;
+  return null;
+}
+
+/**
+ * Load PFFFT. We instantiate its wasm ourselves through the documented emscripten
+ * `instantiateWasm` hook, only to get hold of its memory so that our transposes (wasm-transpose.ts)
+ * can run on it; if anything in that fails, PFFFT is loaded the ordinary way and the JS transposes
+ * are used.
+ */
+function loadPffft(): Promise<Loaded> {
   if (modulePromise === null) {
-    modulePromise = import("@echogarden/pffft-wasm/simd").then((m) => m.default());
+    modulePromise = import("@echogarden/pffft-wasm/simd").then(async (m) => {
+      const api = (globalThis as unknown as { WebAssembly?: { Module: new (b: Uint8Array) => object; Instance: new (m: object, i: unknown) => { exports: Record<string, unknown> } } }).WebAssembly;
+      let memory: object | null = null;
+      try {
+        if (api === undefined) throw new Error("no WebAssembly");
+        const jsPath = createRequire(import.meta.url).resolve("@echogarden/pffft-wasm/simd");
+        const compiled = new api.Module(readFileSync(join(dirname(jsPath), "pffft.wasm")));
+        const mod = await m.default({
+          instantiateWasm(imports: unknown, receive: (instance: object, module: object) => void) {
+            const instance = new api.Instance(compiled, imports);
+            memory = exportedMemory(instance.exports);
+            receive(instance, compiled);
+            return instance.exports;
+          },
+        });
+        return { mod, transposer: memory === null ? null : makeTransposer(memory) };
+      } catch {
+        return { mod: await m.default(), transposer: null };
+      }
+    });
   }
   return modulePromise;
 }
@@ -68,10 +111,15 @@ class PffftPlan implements Rfft2PlanF32 {
   private colsView: Float32Array = new Float32Array(0);
   private rows64: Float64Array = new Float64Array(0); // the same rows, one complex float32 pair per element
   private cols64: Float64Array = new Float64Array(0);
+  private scaleView: Float64Array = new Float64Array(1);
   private disposed = false;
+  private readonly transposer: Transposer | null;
+  private readonly scalePtr: number; // byte pointer of one f64: 1/(nx·ny) for the wasm inverse transpose
 
-  constructor(mod: PffftModule, nx: number, ny: number) {
+  /** `transposer`: our wasm transposes on PFFFT's memory, or null for the JS ones. */
+  constructor(mod: PffftModule, nx: number, ny: number, transposer: Transposer | null) {
     this.mod = mod;
+    this.transposer = transposer;
     this.nx = nx;
     this.ny = ny;
     this.layout = makeTransposedLayout(nx, ny);
@@ -82,6 +130,7 @@ class PffftPlan implements Rfft2PlanF32 {
     this.cols = mod._pffft_aligned_malloc(4 * this.layout.spectrumLength);
     this.rowWork = mod._pffft_aligned_malloc(4 * nx);
     this.colWork = mod._pffft_aligned_malloc(8 * ny);
+    this.scalePtr = mod._pffft_aligned_malloc(16);
     if (this.rows === 0 || this.cols === 0) throw new UmbraError("BAD_DATA", `not enough wasm memory for a ${nx}×${ny} float32 FFT plan`, { field: "nx" });
   }
 
@@ -95,6 +144,7 @@ class PffftPlan implements Rfft2PlanF32 {
       this.colsView = heap.subarray(this.cols >> 2, (this.cols >> 2) + this.layout.spectrumLength);
       this.rows64 = new Float64Array(heap.buffer, this.rows, (this.nx * this.ny) >> 1);
       this.cols64 = new Float64Array(heap.buffer, this.cols, this.layout.spectrumLength >> 1);
+      this.scaleView = new Float64Array(heap.buffer, this.scalePtr, 1);
     }
     return heap;
   }
@@ -111,15 +161,28 @@ class PffftPlan implements Rfft2PlanF32 {
       const p = this.rows + 4 * y * nx;
       mod._pffft_transform_ordered(this.rowSetup, p, p, this.rowWork, PFFFT_FORWARD);
     }
-    // rows (F_0, F_{nx/2}), F_1, … F_{nx/2−1} → columns k = 0 … nx/2, each ny complex
     const half = nx >> 1;
     const col = 2 * ny;
+    if (this.transposer !== null) this.transposer.fwdT(this.rows, this.cols, half, ny);
+    else this.transposeForwardJs(half);
+    // rows (F_0, F_{nx/2}), F_1, … F_{nx/2−1} → columns k = 0 … nx/2, each ny complex; slot 0 of
+    // a row packs (F_0, F_{nx/2}) and is unpacked here, after the transpose
     for (let y = 0; y < ny; y++) {
       b[2 * y] = a[y * nx] as number;
       b[2 * y + 1] = 0;
       b[half * col + 2 * y] = a[y * nx + 1] as number;
       b[half * col + 2 * y + 1] = 0;
     }
+    for (let k = 0; k <= half; k++) {
+      const p = this.cols + 4 * k * col;
+      mod._pffft_transform_ordered(this.colSetup, p, p, this.colWork, PFFFT_FORWARD);
+    }
+    spectrum.set(b);
+  }
+
+  /** The forward transpose in JS (when the wasm one is unavailable), pairs k = 1 … half−1. */
+  private transposeForwardJs(half: number): void {
+    const ny = this.ny;
     // each complex float32 pair moves as one 8-byte element (faster than two float32 moves,
     // docs/fft.md; bit patterns are kept, only a NaN payload could be quieted)
     const a64 = this.rows64;
@@ -134,11 +197,6 @@ class PffftPlan implements Rfft2PlanF32 {
         }
       }
     }
-    for (let k = 0; k <= half; k++) {
-      const p = this.cols + 4 * k * col;
-      mod._pffft_transform_ordered(this.colSetup, p, p, this.colWork, PFFFT_FORWARD);
-    }
-    spectrum.set(b);
   }
 
   inverse(spectrum: Float32Array, map: Float32Array): void {
@@ -156,12 +214,30 @@ class PffftPlan implements Rfft2PlanF32 {
       mod._pffft_transform_ordered(this.colSetup, p, p, this.colWork, PFFFT_BACKWARD);
     }
     // 1/(nx·ny) is applied here, while transposing back (the row transforms are linear: saves a
-    // pass over the map); the imaginary parts of kx = 0 and nx/2 are dropped, as numpy's irfft does
+    // pass over the map); then slot 0 of each row packs (Re F_0, Re F_{nx/2}): the imaginary parts
+    // of kx = 0 and nx/2 are dropped, as numpy's irfft does
     const scale = 1 / (nx * ny);
+    if (this.transposer !== null) {
+      this.scaleView[0] = scale;
+      this.transposer.invT(this.cols, this.rows, half, ny, this.scalePtr);
+    } else this.transposeInverseJs(half, scale);
     for (let y = 0; y < ny; y++) {
       a[y * nx] = (b[2 * y] as number) * scale;
       a[y * nx + 1] = (b[half * col + 2 * y] as number) * scale;
     }
+    for (let y = 0; y < ny; y++) {
+      const p = this.rows + 4 * y * nx;
+      mod._pffft_transform_ordered(this.rowSetup, p, p, this.rowWork, PFFFT_BACKWARD);
+    }
+    map.set(a);
+  }
+
+  /** The inverse transpose in JS (when the wasm one is unavailable), pairs k = 1 … half−1, scaled. */
+  private transposeInverseJs(half: number, scale: number): void {
+    const { nx, ny } = this;
+    const a = this.rowsView;
+    const b = this.colsView;
+    const col = 2 * ny;
     for (let y0 = 0; y0 < ny; y0 += TILE) {
       const y1 = Math.min(ny, y0 + TILE);
       for (let k0 = 1; k0 < half; k0 += TILE) {
@@ -175,11 +251,6 @@ class PffftPlan implements Rfft2PlanF32 {
         }
       }
     }
-    for (let y = 0; y < ny; y++) {
-      const p = this.rows + 4 * y * nx;
-      mod._pffft_transform_ordered(this.rowSetup, p, p, this.rowWork, PFFFT_BACKWARD);
-    }
-    map.set(a);
   }
 
   dispose(): void {
@@ -188,7 +259,7 @@ class PffftPlan implements Rfft2PlanF32 {
     const m = this.mod;
     m._pffft_destroy_setup(this.rowSetup);
     m._pffft_destroy_setup(this.colSetup);
-    for (const p of [this.rows, this.cols, this.rowWork, this.colWork]) m._pffft_aligned_free(p);
+    for (const p of [this.rows, this.cols, this.rowWork, this.colWork, this.scalePtr]) m._pffft_aligned_free(p);
     this.rowSetup = 0;
     this.colSetup = 0;
     this.heap = null;
@@ -205,10 +276,15 @@ class PffftPlan implements Rfft2PlanF32 {
  * those go through the float64 plan. Each plan owns wasm memory: call `dispose()` when done.
  */
 export async function createRfft2PlanFloat32(nx: number, ny: number): Promise<Rfft2PlanF32> {
+  return createFloat32Plan(nx, ny, true);
+}
+
+/** {@link createRfft2PlanFloat32}; `useWasmTranspose = false` forces the JS transposes (for tests and A/B runs; not re-exported). */
+export async function createFloat32Plan(nx: number, ny: number, useWasmTranspose: boolean): Promise<Rfft2PlanF32> {
   checkDimension("nx", nx);
   checkDimension("ny", ny);
   const problem = float32SizeProblem(nx, ny);
   if (problem !== null) throw new UmbraError("BAD_OPTION", `the float32 FFT cannot take a ${nx}×${ny} map: ${problem}`, { field: "nx", value: `${nx}x${ny}` });
-  const mod = await loadPffft();
-  return new PffftPlan(mod, nx, ny);
+  const { mod, transposer } = await loadPffft();
+  return new PffftPlan(mod, nx, ny, useWasmTranspose ? transposer : null);
 }

@@ -9,6 +9,7 @@
 export const I32 = 0x7f;
 export const V128 = 0x7b;
 export const F64 = 0x7c;
+export const F32 = 0x7d;
 
 /** Unsigned LEB128 (spec 5.2.2). */
 export function uleb(n: number): number[] {
@@ -103,12 +104,19 @@ export const Op = {
   f64Load: (offset = 0) => [0x2b, 3, ...uleb(offset)],
   f64Store: (offset = 0) => [0x39, 3, ...uleb(offset)],
   f64Mul: [0xa2],
+  /** i64.load / i64.store (alignment 2^3), f32.load / f32.store (alignment 2^2), f32.mul. */
+  i64Load: (offset = 0) => [0x29, 3, ...uleb(offset)],
+  i64Store: (offset = 0) => [0x37, 3, ...uleb(offset)],
+  f32Load: (offset = 0) => [0x2a, 2, ...uleb(offset)],
+  f32Store: (offset = 0) => [0x38, 2, ...uleb(offset)],
+  f32Mul: [0x94],
   i32Eqz: [0x45],
   i32Ne: [0x47],
   i32LtU: [0x49],
   i32Add: [0x6a],
   i32Sub: [0x6b],
   i32Mul: [0x6c],
+  i32DivU: [0x6e],
   i32RemU: [0x70],
   /** v128.load / v128.store with alignment 2^4 and a static byte offset. */
   vLoad: (offset = 0) => [0xfd, ...uleb(0), 4, ...uleb(offset)],
@@ -123,3 +131,56 @@ export const Op = {
   f64x2Sub: [0xfd, ...uleb(241)],
   f64x2Mul: [0xfd, ...uleb(242)],
 } as const;
+
+/** A tiny local allocator and code buffer for one function of `params` i32 parameters. */
+export class Body {
+  readonly c: number[] = [];
+  private i32s = 0;
+  private f64s = 0;
+  private v128s = 0;
+  private readonly plan: { kind: number; count: number }[];
+  /** `params` i32 parameters; `counts`: how many extra locals of each type the function will ask for. */
+  constructor(private readonly params: number, counts: { i32: number; f64: number; v128: number }) {
+    this.plan = [
+      { kind: I32, count: counts.i32 },
+      { kind: F64, count: counts.f64 },
+      { kind: V128, count: counts.v128 },
+    ];
+  }
+  /** A fresh i32 local (index). */
+  i32(): number {
+    return this.params + this.i32s++;
+  }
+  /** A fresh f64 local (index). */
+  f64(): number {
+    return this.params + (this.plan[0] as { count: number }).count + this.f64s++;
+  }
+  /** A fresh v128 local (index). */
+  v128(): number {
+    return this.params + (this.plan[0] as { count: number }).count + (this.plan[1] as { count: number }).count + this.v128s++;
+  }
+  /** Append instructions. */
+  emit(...ops: (readonly number[])[]): void {
+    for (const o of ops) this.c.push(...o);
+  }
+  /** local d ← local a + constant (i32) */
+  addTo(d: number, a: number, k: number): void {
+    this.emit(Op.get(a), Op.i32(k), Op.i32Add, Op.set(d));
+  }
+  /** local d ← local a + local b (i32) */
+  addL(d: number, a: number, b: number): void {
+    this.emit(Op.get(a), Op.get(b), Op.i32Add, Op.set(d));
+  }
+  /** The finished function, exported as `name`. */
+  done(name: string): FunctionBody {
+    return { name, params: this.params, locals: this.plan.filter((p) => p.count > 0).map((p) => [p.count, p.kind] as [number, number]), code: this.c };
+  }
+}
+
+/** `do { body } while (--counter != 0)` with the counter set from local `from`. */
+export function countedLoop(b: Body, counter: number, from: number, body: () => void): void {
+  b.emit(Op.get(from), Op.set(counter), Op.loop);
+  body();
+  b.emit(Op.get(counter), Op.i32(1), Op.i32Sub, Op.tee(counter), Op.brIf(0), Op.end);
+}
+

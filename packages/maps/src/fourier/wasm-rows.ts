@@ -9,55 +9,9 @@
  * Lane layout as in the kernel: element x of lane (row pair) v at byte (x·P + v)·16, P = pairs.
  * Staged real rows: row 2v at byte 2v·nx·8, row 2v+1 right after it.
  */
-import { F64, I32, Op, V128, type FunctionBody } from "./wasm-emit.js";
+import { Body, Op, countedLoop, type FunctionBody } from "./wasm-emit.js";
 
 const SWAP = [8, 9, 10, 11, 12, 13, 14, 15, 0, 1, 2, 3, 4, 5, 6, 7];
-
-/** A tiny local allocator and code buffer for one function of `params` i32 parameters. */
-class Body {
-  readonly c: number[] = [];
-  private i32s = 0;
-  private f64s = 0;
-  private v128s = 0;
-  private readonly plan: { kind: number; count: number }[];
-  constructor(private readonly params: number, counts: { i32: number; f64: number; v128: number }) {
-    this.plan = [
-      { kind: I32, count: counts.i32 },
-      { kind: F64, count: counts.f64 },
-      { kind: V128, count: counts.v128 },
-    ];
-  }
-  i32(): number {
-    return this.params + this.i32s++;
-  }
-  f64(): number {
-    return this.params + (this.plan[0] as { count: number }).count + this.f64s++;
-  }
-  v128(): number {
-    return this.params + (this.plan[0] as { count: number }).count + (this.plan[1] as { count: number }).count + this.v128s++;
-  }
-  emit(...ops: (readonly number[])[]): void {
-    for (const o of ops) this.c.push(...o);
-  }
-  /** local d ← local a + constant (i32) */
-  addTo(d: number, a: number, k: number): void {
-    this.emit(Op.get(a), Op.i32(k), Op.i32Add, Op.set(d));
-  }
-  /** local d ← local a + local b (i32) */
-  addL(d: number, a: number, b: number): void {
-    this.emit(Op.get(a), Op.get(b), Op.i32Add, Op.set(d));
-  }
-  done(name: string): FunctionBody {
-    return { name, params: this.params, locals: this.plan.filter((p) => p.count > 0).map((p) => [p.count, p.kind] as [number, number]), code: this.c };
-  }
-}
-
-/** `do { body } while (--counter != 0)` with the counter set from local `from`. */
-function countedLoop(b: Body, counter: number, from: number, body: () => void): void {
-  b.emit(Op.get(from), Op.set(counter), Op.loop);
-  body();
-  b.emit(Op.get(counter), Op.i32(1), Op.i32Sub, Op.tee(counter), Op.brIf(0), Op.end);
-}
 
 /** packPairs(src, dst, nx, P): staged real rows → lanes z_v[x] = (row 2v)[x] + i·(row 2v+1)[x]. */
 function packPairs(): FunctionBody {

@@ -4,11 +4,11 @@
  * that need a fixed order sort them (outputs never depend on the number of threads).
  *
  * A worker module calls {@link serveJobs} with its job function; {@link runPool} starts threads on
- * it through ./worker-entry.mjs, which registers tsx's TypeScript loader in the thread first
- * (threads do not inherit the parent's module hooks).
+ * it with @umbra/core's startWorker (which registers tsx's TypeScript loader in the thread first:
+ * threads do not inherit the parent's module hooks).
  */
-import { Worker, parentPort, workerData } from "node:worker_threads";
-import { UmbraError } from "@umbra/core";
+import { parentPort, type Worker } from "node:worker_threads";
+import { UmbraError, isUmbraWorker, startWorker } from "@umbra/core";
 
 type Reply<R> = { ok: true; result: R } | { ok: false; message: string; code: string | null };
 
@@ -48,7 +48,7 @@ export async function runPool<J, R>(
         w.postMessage(job);
       };
       for (let i = 0; i < n; i++) {
-        const w = new Worker(new URL("./worker-entry.mjs", import.meta.url), { execArgv: [], workerData: { module: module.href, umbraWorker: true } });
+        const w = startWorker(module);
         threads.push(w);
         const current: { job: J | null } = { job: null };
         w.on("message", (msg: Reply<R>) => {
@@ -75,7 +75,7 @@ export async function runPool<J, R>(
 export function serveJobs<J, R>(run: (job: J) => Promise<R> | R): void {
   const port = parentPort;
   // only in threads started by runPool (a test runner's own worker threads are left alone)
-  if (port === null || (workerData as { umbraWorker?: unknown } | null)?.umbraWorker !== true) return;
+  if (port === null || !isUmbraWorker()) return;
   port.on("message", (job: J) => {
     Promise.resolve()
       .then(() => run(job))

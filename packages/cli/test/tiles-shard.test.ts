@@ -1,7 +1,8 @@
 /**
  * `umbra measure` and `umbra search` over sky tiles: shards joined by `umbra merge`, a pool of
  * worker threads and a resumed run must write exactly the bytes of one tiled run; missing tiles,
- * foreign tile files and tile options without --tile are refused (exit 2) with the reason.
+ * foreign tile files and tile options without --tile are refused (exit 2) with the reason. Without
+ * tiles, `--workers` spreads the matched-filter fits over threads: same bytes as one thread.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync, rmSync, statSync, unlinkSync, writeFileSync } from "node:fs";
@@ -99,9 +100,9 @@ describe("umbra measure --tile: shards, merge, workers, resume", () => {
     expect(other.err).toContain("tile 0 of another run");
   }, 120_000);
 
-  it("refuses --shard, --resume or --workers without --tile, and a margin narrower than the taper", async () => {
+  it("refuses --shard or --resume without --tile, and a margin narrower than the taper", async () => {
     const base = ["measure", "--bands", manifest, "--catalog", catalog, "--out", join(dir, "x.csv")];
-    for (const extra of [["--shard", "1/2"], ["--resume"], ["--workers", "2"]]) {
+    for (const extra of [["--shard", "1/2"], ["--resume"]]) {
       const r = await capture([...base, ...extra]);
       expect(r.code).toBe(2);
       expect(r.err).toContain("give --tile DEG too");
@@ -110,6 +111,21 @@ describe("umbra measure --tile: shards, merge, workers, resume", () => {
     expect(m.code).toBe(2);
     expect(m.err).toContain("narrower than the 8-arcmin edge taper");
   });
+});
+
+describe("umbra measure / search --workers without tiles (fit threads)", () => {
+  it("write the bytes of a one-thread run", async () => {
+    const one = join(dir, "fit1.csv");
+    const two = join(dir, "fit2.csv");
+    const m = ["measure", "--bands", manifest, "--catalog", catalog, "--no-relativistic", "--randoms", "20", "--iterations", "1"];
+    expect((await capture([...m, "--out", one])).code).toBe(0);
+    expect((await capture([...m, "--out", two, "--workers", "2"])).code).toBe(0);
+    expect(read(two)).toBe(read(one));
+    const s = ["search", "--bands", manifest, "--sizes", "1,2,4", "--iterations", "1"];
+    expect((await capture([...s, "--out", join(dir, "sfit1.csv")])).code).toBe(0);
+    expect((await capture([...s, "--out", join(dir, "sfit2.csv"), "--workers", "2"])).code).toBe(0);
+    expect(read(join(dir, "sfit2.csv"))).toBe(read(join(dir, "sfit1.csv")));
+  }, 120_000);
 });
 
 describe("umbra search --tile: shards in one folder, merge", () => {

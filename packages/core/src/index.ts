@@ -15,3 +15,4 @@ export {
   fwhmToSigma,
 } from "./units.js";
 export type { MapUnit } from "./units.js";
+export * from "./threads.js";

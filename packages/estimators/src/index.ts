@@ -7,3 +7,4 @@ export * from "./sources/index.js";
 export * from "./ilc/index.js";
 export * from "./aperture/index.js";
 export * from "./tiles/index.js";
+export * from "./parallel/index.js";

@@ -14,6 +14,7 @@ import type { Command } from "commander";
 import { UmbraError } from "@umbra/core";
 import {
   clusterPhysics,
+  createFitPool,
   covarianceFromNoiseSimulations,
   joinTileMeasurements,
   loadBandStack,
@@ -200,8 +201,8 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   const tiling = tilingOption(o);
   const shard = o.shard === undefined ? null : parseShard(o.shard);
   const workers = workersOption(o.workers);
-  if (tiling === null && (shard !== null || o.resume === true || workers > 0)) {
-    throw new UmbraError("BAD_OPTION", "--shard, --resume and --workers split a map into sky tiles: give --tile DEG too", { field: "tile" });
+  if (tiling === null && (shard !== null || o.resume === true)) {
+    throw new UmbraError("BAD_OPTION", "--shard and --resume split a map into sky tiles: give --tile DEG too", { field: "tile" });
   }
   progress(`umbra measure: reading ${o.bands}`);
   const stack = await loadBandStack(o.bands);
@@ -228,11 +229,13 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   if (tiling === null) {
     progress(`umbra measure: ${rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}`);
     const bars = stageProgress("umbra measure");
+    const fitRunner = createFitPool(Math.max(1, workers));
     let result: ReturnType<typeof measureStack>;
     try {
-      result = measureStack(stack, rows, s, { ...(noiseCovariance === undefined ? {} : { noiseCovariance }), onProgress: bars.onProgress });
+      result = measureStack(stack, rows, s, { ...(noiseCovariance === undefined ? {} : { noiseCovariance }), onProgress: bars.onProgress, fitRunner });
     } finally {
       bars.stop();
+      await fitRunner.close();
     }
     await writeMeasureOutputs(o.out, o.json === true, { ...meta0, tiles: null }, result.clusters, result.diagnostics);
     return;
@@ -312,6 +315,6 @@ export function register(program: Command): void {
     .option("--tile-margin <arcmin>", "margin analysed around each tile's core, in arcmin (≥ --apodisation)", "30")
     .option("--shard <i/N>", "with --tile: compute only shard i of N (contiguous blocks of tiles) into RESULTS.tiles/; join with umbra merge")
     .option("--resume", "with --tile: skip tiles whose file in RESULTS.tiles/ is already there from the same run")
-    .option("--workers <n>", "with --tile: worker threads measuring tiles in parallel (0 = this thread)", "0")
+    .option("--workers <n>", "threads that compute: with --tile, tiles in parallel; otherwise the cluster fits within the map (0 or 1 = this thread only; results are the same)", "0")
     .action(async (o: MeasureCliOptions) => runMeasure(o));
 }

@@ -7,7 +7,7 @@
 import { mkdir } from "node:fs/promises";
 import { join } from "node:path";
 import type { Command } from "commander";
-import { joinTileSearches, loadBandStack, searchClusters, type Candidate, type SkyTile, type TileSearch } from "@umbra/estimators";
+import { createFitPool, joinTileSearches, loadBandStack, searchClusters, type Candidate, type SkyTile, type TileSearch } from "@umbra/estimators";
 import { UmbraError } from "@umbra/core";
 import { resolve } from "node:path";
 import { parseShard } from "../shard.js";
@@ -102,8 +102,8 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
   const tiling = tilingOption(o);
   const shard = o.shard === undefined ? null : parseShard(o.shard);
   const workers = workersOption(o.workers);
-  if (tiling === null && (shard !== null || o.resume === true || workers > 0)) {
-    throw new UmbraError("BAD_OPTION", "--shard, --resume and --workers split a map into sky tiles: give --tile DEG too", { field: "tile" });
+  if (tiling === null && (shard !== null || o.resume === true)) {
+    throw new UmbraError("BAD_OPTION", "--shard and --resume split a map into sky tiles: give --tile DEG too", { field: "tile" });
   }
   if (tiling !== null && o.snrMaps !== undefined) throw new UmbraError("BAD_OPTION", "--snr-maps is not supported with --tile (tiles overlap)", { field: "snr-maps" });
   progress(`umbra search: reading ${o.bands}`);
@@ -128,15 +128,18 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
   }
   const snrMaps: { theta: number; map: Float32Array }[] = [];
   const bars = stageProgress("umbra search");
+  const fitRunner = createFitPool(Math.max(1, workers));
   let result: ReturnType<typeof searchClusters>;
   try {
     result = searchClusters(stack, {
       ...searchOptionsFor(stack, s),
       onProgress: bars.onProgress,
+      fitRunner,
       ...(o.snrMaps === undefined ? {} : { onSnrMap: (theta: number, m: Float64Array) => snrMaps.push({ theta, map: Float32Array.from(m) }) }),
     });
   } finally {
     bars.stop();
+    await fitRunner.close();
   }
   if (o.snrMaps !== undefined) {
     await mkdir(o.snrMaps, { recursive: true });
@@ -173,6 +176,6 @@ export function register(program: Command): void {
     .option("--tile-margin <arcmin>", "margin analysed around each tile's core, in arcmin (≥ --apodisation)", "30")
     .option("--shard <i/N>", "with --tile: compute only shard i of N (contiguous blocks of tiles) into CANDIDATES.tiles/; join with umbra merge")
     .option("--resume", "with --tile: skip tiles whose file in CANDIDATES.tiles/ is already there from the same run")
-    .option("--workers <n>", "with --tile: worker threads searching tiles in parallel (0 = this thread)", "0")
+    .option("--workers <n>", "threads that compute: with --tile, tiles in parallel; otherwise the candidate fits at every size (0 or 1 = this thread only; results are the same)", "0")
     .action(async (o: SearchCliOptions) => runSearch(o));
 }

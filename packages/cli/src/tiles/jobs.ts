@@ -79,7 +79,7 @@ export function measureStack(
   stack: BandStack,
   rows: readonly CatalogueCluster[],
   s: MeasureSettings,
-  extra: { noiseCovariance?: MeasureOptions["noiseCovariance"]; seedOffset?: number; onProgress?: MeasureOptions["onProgress"] } = {},
+  extra: { noiseCovariance?: MeasureOptions["noiseCovariance"]; seedOffset?: number; onProgress?: MeasureOptions["onProgress"]; fitRunner?: MeasureOptions["fitRunner"] } = {},
 ): { clusters: readonly ClusterMeasurement[]; diagnostics: MeasureResult["diagnostics"] | null } {
   const physics = clusterPhysics(s.cosmology, s.relation);
   const seed = s.seed + (extra.seedOffset ?? 0);
@@ -98,6 +98,7 @@ export function measureStack(
     apodisationArcmin: s.apodisationArcmin,
     ...(extra.noiseCovariance === undefined ? {} : { noiseCovariance: extra.noiseCovariance }),
     ...(extra.onProgress === undefined ? {} : { onProgress: extra.onProgress }),
+    ...(extra.fitRunner === undefined ? {} : { fitRunner: extra.fitRunner }),
   });
 }
 

@@ -21,7 +21,7 @@ export interface TileRunOptions {
   readonly shard: Shard | null;
   /** Skip tiles whose file exists with the same run key. */
   readonly resume: boolean;
-  /** Worker threads (0: run in this thread). */
+  /** Threads that compute (0 or 1: this thread). */
   readonly workers: number;
   /** Progress-bar label. */
   readonly label: string;
@@ -56,7 +56,7 @@ export async function runTiles(stack: BandStack, makeJob: (tile: number) => Tile
     bar.update(++done);
   };
   try {
-    if (o.workers > 0) await runPool<TileJob, TileOutput>(new URL("./worker.ts", import.meta.url), todo, o.workers, (j) => `tile ${j.tile}`, keep);
+    if (o.workers > 1) await runPool<TileJob, TileOutput>(new URL("./worker.ts", import.meta.url), todo, o.workers, (j) => `tile ${j.tile}`, keep);
     else for (const job of todo) await keep(runTileJob(stack, job), job);
   } finally {
     bar.stop();

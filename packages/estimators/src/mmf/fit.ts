@@ -33,8 +33,11 @@ export interface FitScratch {
   readonly ey: Float64Array;
 }
 
+/** The parts of a {@link FilterBank} that {@link fitAtPosition} reads (what a fit thread receives). */
+export type FitBank = Pick<FilterBank, "nBands" | "geometry" | "layout" | "grid" | "ells" | "nPix" | "pixelSr" | "whitened" | "qNodes">;
+
 /** Allocate the scratch arrays for {@link fitAtPosition} on `bank`. */
-export function createFitScratch(bank: FilterBank): FitScratch {
+export function createFitScratch(bank: Pick<FitBank, "geometry">): FitScratch {
   return { ex: new Float64Array(2 * bank.geometry.nx), ey: new Float64Array(2 * bank.geometry.ny) };
 }
 
@@ -42,7 +45,7 @@ export function createFitScratch(bank: FilterBank): FitScratch {
  * Fisher-matrix node table for the SED matrix `seds` (nc columns of nBands values):
  * q_cc'(node) = Σ_ij A_ic Q_ij A_jc'. Returns nNodes × nc × nc.
  */
-export function sedNodeTable(bank: FilterBank, seds: readonly Float64Array[]): Float64Array {
+export function sedNodeTable(bank: Pick<FilterBank, "nBands" | "grid" | "qNodes">, seds: readonly Float64Array[]): Float64Array {
   const nb = bank.nBands;
   const nc = seds.length;
   const nN = bank.grid.nNodes;
@@ -73,7 +76,7 @@ export function sedNodeTable(bank: FilterBank, seds: readonly Float64Array[]): F
  * Throws BAD_DATA when the Fisher matrix is singular (e.g. a component fully deprojected).
  */
 export function fitAtPosition(
-  bank: FilterBank,
+  bank: FitBank,
   table: ProfileTable,
   thetaRad: number,
   seds: readonly Float64Array[],
@@ -180,7 +183,7 @@ export function combineSeds(bank: FilterBank, seds: readonly Float64Array[]): Fl
 const perMode = new WeakMap<Float64Array, Float64Array>();
 
 /** A one-component node table interpolated to every mode (cached per table). */
-function perModeTable(bank: FilterBank, nodeTable: Float64Array): Float64Array {
+function perModeTable(bank: FitBank, nodeTable: Float64Array): Float64Array {
   let q = perMode.get(nodeTable);
   if (q === undefined) {
     q = new Float64Array(bank.layout.modeCount);

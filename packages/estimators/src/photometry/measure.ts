@@ -9,7 +9,8 @@
 import { RAD_PER_ARCMIN, UmbraError, createRng } from "@umbra/core";
 import { worldToPixel } from "@umbra/maps";
 import { buildFilterBank, rewhitenBank, type FilterBank } from "../mmf/bank.js";
-import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
+import { serialFits, type FitRunner } from "../parallel/fitPool.js";
+import type { FitRequest } from "../parallel/fitBatch.js";
 import { prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileTable } from "../mmf/profile.js";
 import { filterRadialProfile, type FilterRadialProfile } from "../mmf/filterProfile.js";
@@ -21,6 +22,7 @@ import type { BandStack } from "../stack/types.js";
 import { ELECTRON_REST_ENERGY_KEV, SPEED_OF_LIGHT_MPS } from "@umbra/spectra";
 import { FATAL_FLAGS, positionFlags, type ClusterFlag } from "./flags.js";
 import { paintClusters, type PaintedCluster } from "./model.js";
+import { massesFromY, type MassOutcome } from "./masses.js";
 import { prepareStack, type PreparedStack } from "./prepare.js";
 import { randomAllowedMask, randomPositionScatter, type RandomScatter } from "./randoms.js";
 import type { CatalogueCluster, ClusterMeasurement, MeasureOptions, MeasureResult, ScanPoint } from "./types.js";
@@ -100,37 +102,6 @@ function isFatal(flags: readonly ClusterFlag[]): boolean {
   return flags.some((f) => FATAL_FLAGS.includes(f));
 }
 
-function fitTarget(
-  bank: FilterBank,
-  table: ProfileTable,
-  t: Target,
-  scanSizes: readonly number[],
-  scratch: ReturnType<typeof createFitScratch>,
-  combined: readonly Float64Array[],
-): TargetFit {
-  const nodeTable = nodeTableFor(bank, t);
-  const at = (thetaArcmin: number) => fitAtPosition(bank, table, thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratch, nodeTable, combined);
-  if (t.thetaArcmin !== null) {
-    const f = at(t.thetaArcmin);
-    return { thetaArcmin: t.thetaArcmin, amplitudes: f.amplitudes, covariance: f.covariance, scan: null };
-  }
-  let best: TargetFit | null = null;
-  let bestSnr = -Infinity;
-  const scan: ScanPoint[] = [];
-  for (const th of scanSizes) {
-    const f = at(th);
-    const y0 = f.amplitudes[0] as number;
-    const err = Math.sqrt(f.covariance[0] as number);
-    const area = yOverY0Arcmin2(table, th);
-    scan.push({ theta500Arcmin: th, y0, y0Err: err, yArcmin2: y0 * area, yErrArcmin2: err * area, snr: y0 / err });
-    if (y0 / err > bestSnr) {
-      bestSnr = y0 / err;
-      best = { thetaArcmin: th, amplitudes: f.amplitudes, covariance: f.covariance, scan };
-    }
-  }
-  return best as TargetFit;
-}
-
 /** Y5R500/y0 in arcmin² for θ500 in arcmin: θ500² g(0) (g(0) in units of the scale², see ../mmf/profile.ts). */
 export function yOverY0Arcmin2(table: ProfileTable, thetaArcmin: number): number {
   return thetaArcmin * thetaArcmin * table.integralUnitScale;
@@ -141,23 +112,46 @@ function fitForCleaning(t: Target): boolean {
   return !isFatal(t.flags) || (t.flags.includes("edge") && !t.flags.includes("off_map") && !t.flags.includes("masked"));
 }
 
-function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[], scanSizes: readonly number[], onProgress: MeasureOptions["onProgress"]): (TargetFit | null)[] {
-  const scratch = createFitScratch(bank);
-  const cache = new Map<string, Float64Array[]>();
-  return targets.map((t, k) => {
-    onProgress?.("first fit", k, targets.length);
+/**
+ * First fit of every target (clusters that are reported, and edge clusters fitted for the cleaning
+ * only): at its θ500, or at each scan size keeping the best S/N. One batch on `runner`; a target
+ * with a singular fit gets null.
+ */
+function fitAll(bank: FilterBank, table: ProfileTable, targets: readonly Target[], scanSizes: readonly number[], runner: FitRunner, onProgress: MeasureOptions["onProgress"]): (TargetFit | null)[] {
+  const requests: FitRequest[] = [];
+  const first: number[] = [];
+  targets.forEach((t) => {
+    first.push(requests.length);
+    if (!fitForCleaning(t)) return;
+    for (const th of t.thetaArcmin !== null ? [t.thetaArcmin] : scanSizes) requests.push({ seds: t.seds, sedKey: t.sedKey, thetaRad: th * RAD_PER_ARCMIN, px: t.px, py: t.py });
+  });
+  onProgress?.("first fit", 0, 1);
+  const fits = runner.fitMany(bank, table, requests);
+  onProgress?.("first fit", 1, 1);
+  return targets.map((t, n) => {
     if (!fitForCleaning(t)) return null;
-    let comb = cache.get(t.sedKey);
-    if (comb === undefined) {
-      comb = combineSeds(bank, t.seds);
-      cache.set(t.sedKey, comb);
+    const r0 = first[n] as number;
+    if (t.thetaArcmin !== null) {
+      const f = fits[r0];
+      return f == null ? null : { thetaArcmin: t.thetaArcmin, amplitudes: f.amplitudes, covariance: f.covariance, scan: null };
     }
-    try {
-      return fitTarget(bank, table, t, scanSizes, scratch, comb);
-    } catch (e) {
-      if (e instanceof UmbraError && e.code === "BAD_DATA") return null;
-      throw e;
+    let best: TargetFit | null = null;
+    let bestSnr = -Infinity;
+    const scan: ScanPoint[] = [];
+    for (let q = 0; q < scanSizes.length; q++) {
+      const f = fits[r0 + q];
+      if (f == null) return null;
+      const th = scanSizes[q] as number;
+      const y0 = f.amplitudes[0] as number;
+      const err = Math.sqrt(f.covariance[0] as number);
+      const area = yOverY0Arcmin2(table, th);
+      scan.push({ theta500Arcmin: th, y0, y0Err: err, yArcmin2: y0 * area, yErrArcmin2: err * area, snr: y0 / err });
+      if (y0 / err > bestSnr) {
+        bestSnr = y0 / err;
+        best = { thetaArcmin: th, amplitudes: f.amplitudes, covariance: f.covariance, scan };
+      }
     }
+    return best;
   });
 }
 
@@ -172,23 +166,6 @@ function painted(targets: readonly Target[], fits: readonly (TargetFit | null)[]
     });
   });
   return out;
-}
-
-const nodeTables = new WeakMap<FilterBank, Map<string, Float64Array>>();
-
-/** The Fisher node table of a target's SEDs on `bank`, cached per bank and SED key. */
-function nodeTableFor(bank: FilterBank, t: Target): Float64Array {
-  let m = nodeTables.get(bank);
-  if (m === undefined) {
-    m = new Map();
-    nodeTables.set(bank, m);
-  }
-  let nt = m.get(t.sedKey);
-  if (nt === undefined) {
-    nt = sedNodeTable(bank, t.seds);
-    m.set(t.sedKey, nt);
-  }
-  return nt;
 }
 
 /**
@@ -213,7 +190,8 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
     buildFilterBank({ layout: prep.plan.layout, geometry: stack.geometry, ells: prep.ells, spectra, beams, covariance: cov, deproject: opts.deproject });
   let cov = opts.noiseCovariance ?? covFrom(prep.spectra);
   let bank = bankFor(cov);
-  let fits = fitAll(bank, table, targets, scanSizes, opts.onProgress);
+  const runner = opts.fitRunner ?? serialFits;
+  let fits = fitAll(bank, table, targets, scanSizes, runner, opts.onProgress);
   // Each iteration: subtract every cluster's current model, re-estimate the covariance from the
   // cleaned maps (Zubeldia et al. 2023), and update every cluster by a fit on the residual:
   // a ← a + fit(data − Σ models). The update is one Jacobi step of the joint least-squares fit of
@@ -232,24 +210,25 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
       bank = bankFor(cov);
     }
     const resid = rewhitenBank(bank, cleaned);
-    const scratchJ = createFitScratch(bank);
-    const combinedCache = new Map<string, Float64Array[]>();
-    lastChange = 0;
-    fits = fits.map((f, k) => {
-      opts.onProgress?.(`cleaning ${it + 1}`, k, fits.length);
-      if (f === null) return null;
+    const live = fits.flatMap((f, k) => (f === null ? [] : [k]));
+    opts.onProgress?.(`cleaning ${it + 1}`, 0, 1);
+    const updates = runner.fitMany(resid, table, live.map((k) => {
       const t = targets[k] as Target;
-      let comb = combinedCache.get(t.sedKey);
-      if (comb === undefined) {
-        comb = combineSeds(resid, t.seds);
-        combinedCache.set(t.sedKey, comb);
-      }
-      const d = fitAtPosition(resid, table, f.thetaArcmin * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratchJ, nodeTableFor(bank, t), comb);
+      return { seds: t.seds, sedKey: t.sedKey, thetaRad: (fits[k] as TargetFit).thetaArcmin * RAD_PER_ARCMIN, px: t.px, py: t.py };
+    }));
+    opts.onProgress?.(`cleaning ${it + 1}`, 1, 1);
+    lastChange = 0;
+    const next = [...fits];
+    live.forEach((k, q) => {
+      const f = fits[k] as TargetFit;
+      const d = updates[q];
+      if (d == null) return; // a singular update (should not happen once the first fit worked): keep the fit
       const amplitudes = f.amplitudes.map((a, c) => a + (d.amplitudes[c] as number));
       const change = Math.abs(d.amplitudes[0] as number) / Math.sqrt(d.covariance[0] as number);
-      if (!isFatal(t.flags) && change > lastChange) lastChange = change;
-      return { ...f, amplitudes, covariance: d.covariance };
+      if (!isFatal((targets[k] as Target).flags) && change > lastChange) lastChange = change;
+      next[k] = { ...f, amplitudes, covariance: d.covariance };
     });
+    fits = next;
     iterations = it + 1;
     if (lastChange < tol) break;
   }
@@ -285,23 +264,18 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
   }
   // random positions on the cluster-subtracted maps, so that no catalogued cluster's wings enter
   const randoms = (opts.randomCount ?? 300) > 0 ? randomErrors(prep, maxIt > 0 ? rewhitenBank(bank, cleaned) : bank, table, targets, fits, opts) : [];
-  const scratch = createFitScratch(bank);
-  const results = targets.map((t, k) => {
-    opts.onProgress?.("results", k, targets.length);
-    const cache = new Map<number, { yArcmin2: number; yErrArcmin2: number }>();
-    const nodeTable = nodeTableFor(bank, t);
-    const refit = (th: number) => {
-      let r = cache.get(th);
-      if (r === undefined) {
-        const f = fitAtPosition(bank, table, th * RAD_PER_ARCMIN, t.seds, t.px, t.py, scratch, nodeTable);
-        const area = yOverY0Arcmin2(table, th);
-        r = { yArcmin2: (f.amplitudes[0] as number) * area, yErrArcmin2: Math.sqrt(f.covariance[0] as number) * area };
-        cache.set(th, r);
-      }
-      return r;
-    };
-    return toMeasurement(t, isFatal(t.flags) ? null : (fits[k] ?? null), table, randoms, opts, refit);
+  // masses: every reportable cluster with a redshift, solved together (see ./masses.ts)
+  const canMass = opts.physics !== undefined && opts.physics.angularDiameterDistanceMpc !== undefined && (opts.physics.massFromYSteps !== undefined || opts.physics.massFromY !== undefined);
+  const massTargets = targets.map((t, k) => {
+    const f = fits[k];
+    const z = t.c.z;
+    if (!canMass || isFatal(t.flags) || f == null || z == null || !(z > 0) || !((f.amplitudes[0] as number) > 0)) return null;
+    return { seds: t.seds, sedKey: t.sedKey, px: t.px, py: t.py, z };
   });
+  opts.onProgress?.("masses", 0, 1);
+  const masses = opts.physics === undefined ? targets.map(() => null) : massesFromY(bank, table, massTargets, opts.physics, runner);
+  opts.onProgress?.("masses", 1, 1);
+  const results = targets.map((t, k) => toMeasurement(t, isFatal(t.flags) ? null : (fits[k] ?? null), table, randoms, opts, masses[k] ?? null));
   return {
     clusters: results,
     diagnostics: {
@@ -360,7 +334,7 @@ function toMeasurement(
   table: ProfileTable,
   randoms: readonly RandomScatter[],
   opts: MeasureOptions,
-  refit: ((theta500Arcmin: number) => { yArcmin2: number; yErrArcmin2: number }) | null,
+  mass: MassOutcome | null,
 ): ClusterMeasurement {
   const flags = [...t.flags];
   const base = { id: t.c.id, raDeg: t.c.raDeg, decDeg: t.c.decDeg, px: t.px, py: t.py, teKeVUsed: t.teKeV };
@@ -407,15 +381,10 @@ function toMeasurement(
     const mpc2PerArcmin2 = (da * RAD_PER_ARCMIN) ** 2;
     yMpc2 = yArcmin2 * mpc2PerArcmin2;
     yErrMpc2 = yErrArcmin2 * mpc2PerArcmin2;
-    if (opts.physics.massFromY !== undefined && yArcmin2 > 0 && refit !== null) {
-      try {
-        const m = opts.physics.massFromY(refit, z);
-        m500Msun = m.m500Msun;
-        m500ErrMsun = m.m500ErrMsun;
-      } catch (e) {
-        if (!(e instanceof UmbraError)) throw e;
-        flags.push("mass_failed");
-      }
+    if (mass === "failed") flags.push("mass_failed");
+    else if (mass !== null) {
+      m500Msun = mass.m500Msun;
+      m500ErrMsun = mass.m500ErrMsun;
     }
   }
   const { ratio } = randomSigmaAt(randoms, f.thetaArcmin * RAD_PER_ARCMIN);

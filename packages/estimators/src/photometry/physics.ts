@@ -7,6 +7,7 @@ import {
   a10YmRelation,
   cosmologyPreset,
   m500FromY,
+  m500FromYSteps,
   planck2014YmRelation,
   temperatureFromMassKeV,
   theta500Arcmin,
@@ -39,6 +40,10 @@ export function clusterPhysics(cosmologyName: string, relationName: string): Clu
         relation,
         definition: "y5r500",
       });
+      return { m500Msun: r.m500Msun, m500ErrMsun: r.m500ErrMsun };
+    },
+    *massFromYSteps(z) {
+      const r = yield* m500FromYSteps({ z, cosmo, relation, definition: "y5r500" });
       return { m500Msun: r.m500Msun, m500ErrMsun: r.m500ErrMsun };
     },
   };

@@ -1,6 +1,7 @@
 /**
  * Inputs and outputs of forced photometry.
  */
+import type { FitRunner } from "../parallel/fitPool.js";
 import type { CovarianceOptions } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
 import type { ProfileShape } from "../mmf/profile.js";
@@ -33,6 +34,11 @@ export interface ClusterPhysics {
    * of each trial θ500 (`yAt` re-fits the cluster at that size).
    */
   massFromY?(yAt: (theta500Arcmin: number) => { yArcmin2: number; yErrArcmin2: number }, z: number): { m500Msun: number; m500ErrMsun: number };
+  /**
+   * The same solution step by step (preferred when present): yields each trial θ500 (arcmin), takes
+   * the Y measured there back through `next`, returns the mass. Lets many clusters be solved together.
+   */
+  massFromYSteps?(z: number): Generator<number, { m500Msun: number; m500ErrMsun: number }, { yArcmin2: number; yErrArcmin2: number }>;
 }
 
 /** Band SEDs in K_CMB per unit amplitude, one value per band. */
@@ -79,6 +85,8 @@ export interface MeasureOptions {
   readonly noiseCovariance?: BandCovariance;
   /** Called as work advances: stage name, items done, items in the stage (e.g. for a progress bar). */
   readonly onProgress?: ProgressCallback;
+  /** Where the matched-filter fits run (default: this thread; see createFitPool for worker threads). Results do not depend on it. */
+  readonly fitRunner?: FitRunner;
 }
 
 /** Progress of a long loop: `done` of `total` items of the named stage. */

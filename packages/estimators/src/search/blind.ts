@@ -8,7 +8,8 @@
 import { RAD_PER_ARCMIN, UmbraError } from "@umbra/core";
 import { pixelToWorld } from "@umbra/maps";
 import { buildFilterBank, type FilterBank } from "../mmf/bank.js";
-import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable } from "../mmf/fit.js";
+import type { ComponentFit } from "../mmf/fit.js";
+import { serialFits, type FitRunner } from "../parallel/fitPool.js";
 import { filteredMap, prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileShape, type ProfileTable } from "../mmf/profile.js";
 import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares, type WhiteNoiseModel } from "../mmf/localNoise.js";
@@ -54,6 +55,8 @@ export interface SearchOptions {
   readonly reportBox?: PixelBox;
   /** Called as work advances: stage name, items done, items in the stage (e.g. for a progress bar). */
   readonly onProgress?: ProgressCallback;
+  /** Where the refining fits run (default: this thread; see createFitPool for worker threads). Results do not depend on it. */
+  readonly fitRunner?: FitRunner;
 }
 
 /** One blind candidate. */
@@ -185,18 +188,24 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   let cands: Candidate[] = [];
   let sigmas: number[] = [];
   let iterations = 0;
-  const nodeTable = (b: FilterBank) => sedNodeTable(b, [opts.tszSed]);
+  const runner = opts.fitRunner ?? serialFits;
   for (let it = 0; it <= maxIt; it++) {
     const last = it === maxIt;
     const onSize = (k: number): void => opts.onProgress?.(`pass ${it + 1}/${maxIt + 1}`, k, sizes.length);
     const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined, noise, onSize);
     sigmas = pass.sigmas;
     const kept = deblendPeaks(pass.raws, (k) => Math.max(sizes[k.sizeIndex] as number, maxBeam) / pixArcmin);
-    const scratch = createFitScratch(bank);
-    const nt = nodeTable(bank);
-    const comb = combineSeds(bank, [opts.tszSed]);
     // cleaning passes only need each detection's fit at its best size; the last pass scans all
-    cands = kept.map((r, k) => refine(bank, table, sizes, r, scratch, nt, k, opts.tszSed, noise, nx, comb, last));
+    const requests = kept.flatMap((r) =>
+      sizes.flatMap((th, i) => (last || i === r.sizeIndex ? [{ seds: [opts.tszSed], sedKey: "tsz", thetaRad: th * RAD_PER_ARCMIN, px: r.px, py: r.py }] : [])),
+    );
+    const fits = runner.fitMany(bank, table, requests);
+    let at = 0;
+    cands = kept.flatMap((r, k) => {
+      const mine = sizes.map((_, i) => (last || i === r.sizeIndex ? (fits[at++] ?? null) : null));
+      const c = refine(bank, table, sizes, r, mine, k, opts.tszSed, noise, nx);
+      return c === null ? [] : [c];
+    });
     iterations = it;
     if (last) break;
     if (cands.length === 0 && it > 0) break;
@@ -229,35 +238,34 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   };
 }
 
-/** Fit every size at the sub-pixel peak; best size by S/N; size range with S/N within 1 of it. */
+/**
+ * Best size by S/N from the fits at the sub-pixel peak (`fits[i]` at sizes[i], null where not
+ * fitted or singular); size range with S/N within 1 of it. Null when no size could be fitted.
+ */
 function refine(
   bank: FilterBank,
   table: ProfileTable,
   sizes: readonly number[],
   r: Raw,
-  scratch: ReturnType<typeof createFitScratch>,
-  nt: Float64Array,
+  fits: readonly (ComponentFit | null)[],
   k: number,
   sed: Float64Array,
   noise: WhiteNoiseModel | null,
   nx: number,
-  combined: readonly Float64Array[],
-  allSizes: boolean,
-): Candidate {
+): Candidate | null {
   const snr: number[] = [];
   const errs: number[] = [];
-  const fits = sizes.map((th, i) => {
-    if (!allSizes && i !== r.sizeIndex) {
+  sizes.forEach((th, i) => {
+    const f = fits[i];
+    if (f == null) {
       snr.push(-Infinity);
       errs.push(NaN);
-      return null;
+      return;
     }
-    const f = fitAtPosition(bank, table, th * RAD_PER_ARCMIN, [sed], r.px, r.py, scratch, nt, combined);
     let err = Math.sqrt(f.covariance[0] as number);
     if (noise !== null) err *= localSigmaFactor(whiteNoiseShares(bank, table, th * RAD_PER_ARCMIN, sed, err, noise.meanVariance), err, noise, r.iy * nx + r.ix);
     errs.push(err);
     snr.push((f.amplitudes[0] as number) / err);
-    return f;
   });
   let b = 0;
   for (let i = 1; i < sizes.length; i++) if ((snr[i] as number) > (snr[b] as number)) b = i;
@@ -265,7 +273,8 @@ function refine(
   let hi = b;
   while (lo > 0 && (snr[lo - 1] as number) >= (snr[b] as number) - 1) lo--;
   while (hi < sizes.length - 1 && (snr[hi + 1] as number) >= (snr[b] as number) - 1) hi++;
-  const f = fits[b] as NonNullable<(typeof fits)[number]>;
+  const f = fits[b];
+  if (f == null) return null;
   const y0 = f.amplitudes[0] as number;
   const y0Err = errs[b] as number;
   const th = sizes[b] as number;

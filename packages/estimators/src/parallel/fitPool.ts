@@ -1,0 +1,175 @@
+/**
+ * Matched-filter fits over worker threads: a {@link FitRunner} runs a batch of fits (clusters,
+ * sizes) on one bank, synchronously for the caller. With threads, the batch's inputs are posted to
+ * every worker, and all threads — this one included — take tasks from a shared counter until none is
+ * left (Atomics on SharedArrayBuffers), so the split balances itself; this thread then waits
+ * (Atomics.wait) for the last task. Results are bit-identical whatever the number of threads.
+ */
+import type { Worker } from "node:worker_threads";
+import { UmbraError, startWorker } from "@umbra/core";
+import type { FilterBank } from "../mmf/bank.js";
+import type { ComponentFit, FitBank } from "../mmf/fit.js";
+import type { ProfileTable } from "../mmf/profile.js";
+import { batchArrays, batchResult, runBatchTasks, sedSets, type FitRequest, type SedSet } from "./fitBatch.js";
+import type { WorkerMessage } from "./fitWorker.js";
+
+/** Runs batches of fits; see module doc. */
+export interface FitRunner {
+  /** Threads that compute (this one included). */
+  readonly threads: number;
+  /** Fit every request on `bank` (null where the Fisher matrix is singular), in request order. */
+  fitMany(bank: FilterBank, table: ProfileTable, requests: readonly FitRequest[]): (ComponentFit | null)[];
+  /** Resolves when every worker thread has loaded (batches before that start with fewer threads). */
+  whenReady(): Promise<void>;
+  /** Fits computed so far by worker threads (not this one): a diagnostic. */
+  readonly workerFits: number;
+  /** Stop the worker threads (the runner then computes in this thread only). */
+  close(): Promise<void>;
+}
+
+/** Longest wait without a finished task before a batch is declared stuck (a worker died mid-task). */
+const STALL_MS = 600_000;
+
+/** A runner that fits in this thread only. */
+export const serialFits: FitRunner = {
+  threads: 1,
+  fitMany(bank, table, requests) {
+    const { sets, index } = cachedSedSets(bank, requests);
+    const a = batchArrays(requests, index, false);
+    runBatchTasks(bank, table, sets, a);
+    return requests.map((r, i) => batchResult(a, i, r.seds.length));
+  },
+  whenReady: async () => undefined,
+  workerFits: 0,
+  close: async () => undefined,
+};
+
+/** Banks whose arrays the worker threads hold (oldest first dropped beyond this many). */
+const KEPT_CONTEXTS = 3;
+
+/** The arrays of `bank` that a fit thread reads, as plain data (the layout may be a class with getters). */
+function portableBank(bank: FilterBank): FitBank {
+  const l = bank.layout;
+  return {
+    nBands: bank.nBands,
+    geometry: { ...bank.geometry },
+    layout: { nx: l.nx, ny: l.ny, modeCount: l.modeCount, spectrumLength: l.spectrumLength, kxIndex: l.kxIndex, kyIndex: l.kyIndex, hermitianWeight: l.hermitianWeight },
+    grid: { ...bank.grid },
+    ells: bank.ells,
+    nPix: bank.nPix,
+    pixelSr: bank.pixelSr,
+    qNodes: bank.qNodes,
+    whitened: [],
+  };
+}
+
+/**
+ * A runner on `threads` threads: this one plus threads − 1 worker threads (started now; each takes
+ * a second or two to load, during which this thread works alone). `threads` ≤ 1 gives {@link serialFits}.
+ * Each bank's arrays and SED combinations are posted to the workers once and kept for the next
+ * batches on the same bank (the last few banks).
+ */
+export function createFitPool(threads: number): FitRunner {
+  if (!Number.isInteger(threads) || threads < 1 || threads > 256) throw new UmbraError("BAD_OPTION", `fit threads ${threads}: use an integer from 1 to 256`, { field: "threads" });
+  if (threads === 1) return serialFits;
+  let workers: Worker[] = Array.from({ length: threads - 1 }, () => {
+    const w = startWorker(new URL("./fitWorker.ts", import.meta.url));
+    w.unref();
+    return w;
+  });
+  const ready = Promise.all(workers.map((w) => new Promise<void>((resolve, reject) => {
+    w.once("message", () => resolve());
+    w.once("error", reject);
+  }))).then(() => undefined);
+  ready.catch(() => undefined);
+  let workerFits = 0;
+  const ids = new WeakMap<FilterBank, number>();
+  const live: { id: number; keys: Set<string> }[] = [];
+  let nextId = 1;
+  const post = (m: WorkerMessage): void => {
+    for (const w of workers) w.postMessage(m);
+  };
+  return {
+    threads,
+    fitMany(bank, table, requests) {
+      if (requests.length === 0) return [];
+      const { sets, index, keys } = cachedSedSets(bank, requests);
+      const a = batchArrays(requests, index, true);
+      // only batches of several fits are worth posting (the bank's arrays are copied once per bank)
+      if (requests.length > 1 && workers.length > 0) {
+        let id = ids.get(bank);
+        let entry = id === undefined ? undefined : live.find((e) => e.id === id);
+        if (id === undefined || entry === undefined) {
+          id = nextId++;
+          ids.set(bank, id);
+          entry = { id, keys: new Set() };
+          live.push(entry);
+          post({ kind: "bank", id, bank: portableBank(bank) });
+          while (live.length > KEPT_CONTEXTS) post({ kind: "drop", id: (live.shift() as { id: number }).id });
+        }
+        const fresh = keys.flatMap((k, q) => (entry!.keys.has(k) ? [] : [{ key: k, set: sets[q] as SedSet }]));
+        if (fresh.length > 0) {
+          post({ kind: "sets", id, sets: fresh });
+          for (const f of fresh) entry.keys.add(f.key);
+        }
+        post({ kind: "batch", id, table: { ...table }, keys, arrays: a });
+      }
+      runBatchTasks(bank, table, sets, a);
+      const n = requests.length;
+      let last = Atomics.load(a.control, 1);
+      let since = Date.now();
+      while (last < n) {
+        Atomics.wait(a.control, 1, last, 1000);
+        const now = Atomics.load(a.control, 1);
+        if (now !== last) {
+          last = now;
+          since = Date.now();
+        } else if (Date.now() - since > STALL_MS) {
+          throw new UmbraError("INTERNAL", `a fit thread stopped in the middle of a batch (${n - last} of ${n} fits unfinished)`);
+        }
+      }
+      workerFits += Atomics.load(a.control, 2);
+      return requests.map((r, i) => batchResult(a, i, r.seds.length));
+    },
+    whenReady: () => ready,
+    get workerFits() {
+      return workerFits;
+    },
+    async close() {
+      const ws = workers;
+      workers = [];
+      await Promise.all(ws.map((w) => w.terminate()));
+    },
+  };
+}
+
+const setCache = new WeakMap<FilterBank, Map<string, SedSet>>();
+
+/** {@link sedSets} with each bank's SED combinations computed once (they cost a pass over every band's spectrum). */
+function cachedSedSets(bank: FilterBank, requests: readonly FitRequest[]): { sets: SedSet[]; index: Int32Array; keys: string[] } {
+  let m = setCache.get(bank);
+  if (m === undefined) {
+    m = new Map();
+    setCache.set(bank, m);
+  }
+  const byKey = new Map<string, number>();
+  const sets: SedSet[] = [];
+  const keys: string[] = [];
+  const index = new Int32Array(requests.length);
+  requests.forEach((r, i) => {
+    let k = byKey.get(r.sedKey);
+    if (k === undefined) {
+      let set = m!.get(r.sedKey);
+      if (set === undefined) {
+        set = sedSets(bank, [r]).sets[0] as SedSet;
+        m!.set(r.sedKey, set);
+      }
+      k = sets.length;
+      byKey.set(r.sedKey, k);
+      sets.push(set);
+      keys.push(r.sedKey);
+    }
+    index[i] = k;
+  });
+  return { sets, index, keys };
+}

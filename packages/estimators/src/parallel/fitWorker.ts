@@ -1,0 +1,32 @@
+/** Worker thread of a fit pool (./fitPool.ts): keeps the banks it is sent and runs the tasks of every batch. */
+import { parentPort } from "node:worker_threads";
+import { isUmbraWorker } from "@umbra/core";
+import type { FitBank } from "../mmf/fit.js";
+import type { ProfileTable } from "../mmf/profile.js";
+import { runBatchTasks, type BatchArrays, type SedSet } from "./fitBatch.js";
+
+/** What the pool posts: a bank's arrays (copied once), SED sets for it, batches (shared arrays), and drops. */
+export type WorkerMessage =
+  | { readonly kind: "bank"; readonly id: number; readonly bank: FitBank }
+  | { readonly kind: "sets"; readonly id: number; readonly sets: readonly { key: string; set: SedSet }[] }
+  | { readonly kind: "batch"; readonly id: number; readonly table: ProfileTable; readonly keys: readonly string[]; readonly arrays: BatchArrays }
+  | { readonly kind: "drop"; readonly id: number };
+
+if (parentPort !== null && isUmbraWorker()) {
+  parentPort.postMessage("ready");
+  const banks = new Map<number, { bank: FitBank; sets: Map<string, SedSet> }>();
+  parentPort.on("message", (m: WorkerMessage) => {
+    if (m.kind === "bank") banks.set(m.id, { bank: m.bank, sets: new Map() });
+    else if (m.kind === "drop") banks.delete(m.id);
+    else if (m.kind === "sets") {
+      const b = banks.get(m.id);
+      if (b !== undefined) for (const s of m.sets) b.sets.set(s.key, s.set);
+    } else {
+      const b = banks.get(m.id);
+      if (b === undefined) return; // cannot happen (banks are dropped only after newer ones); this thread sits the batch out
+      const sets = m.keys.map((k) => b.sets.get(k));
+      if (sets.some((s) => s === undefined)) return;
+      runBatchTasks(b.bank, m.table, sets as SedSet[], m.arrays, true);
+    }
+  });
+}

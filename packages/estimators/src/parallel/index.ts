@@ -1,0 +1,2 @@
+export { createFitPool, serialFits, type FitRunner } from "./fitPool.js";
+export type { FitRequest } from "./fitBatch.js";

@@ -27,19 +27,29 @@ const SECTIONS: Section[] = [
   {
     name: "fft",
     title: "Real 2-D FFT round trip (forward + inverse) against numpy",
-    what: "Median seconds per rfft2 + irfft2 round trip on random float64 maps; numpy's times from `python3 tests/bench/fft_numpy.py` in the same run; ratio = umbra / numpy; floor: the issue #2 target (≤ 2.0 float64, ≤ 0.8 float32). One run on a shared machine: single ratios swing by ±30 % (docs/fft.md has medians over several runs).",
+    what: "Seconds per rfft2 + irfft2 round trip on random maps: umbra (`tests/bench/fft.ts`) and numpy (`python3 tests/bench/fft_numpy.py`) each timed in two passes, alternating (umbra, numpy, umbra, numpy), each pass the median of 11 round trips (5 at 4096²) after three warm-up calls; each side keeps its faster pass, so a burst of load from other processes during one pass does not decide the ratio. ratio = umbra / numpy; floor: the issue #2 target (≤ 2.0 float64, ≤ 0.8 float32). docs/fft.md has medians over several runs.",
     async run(quick) {
       const { benchFft } = await import("./fft.js");
-      const rows = (await benchFft({ quick })) as unknown as Row[];
-      const py = spawnSync("python3", [fileURLToPath(new URL("./fft_numpy.py", import.meta.url)), ...(quick ? ["--quick"] : [])], { encoding: "utf8" });
-      if (py.status !== 0) return rows.map((r) => ({ ...r, numpySeconds: "numpy unavailable" }));
-      const np = JSON.parse(py.stdout) as { library?: string; rows: { nx: number; ny: number; roundTripSeconds: number }[] };
+      type NpRow = { nx: number; ny: number; roundTripSeconds: number };
+      const passes = quick ? 1 : 2;
+      let rows: Row[] = [];
+      const npPasses: { library?: string; rows: NpRow[] }[] = [];
+      for (let p = 0; p < passes; p++) {
+        const ours = (await benchFft({ quick })) as unknown as Row[];
+        rows = p === 0 ? ours : rows.map((r, i) => (((ours[i] as Row)["roundTripSeconds"] as number) < (r["roundTripSeconds"] as number) ? (ours[i] as Row) : r));
+        const py = spawnSync("python3", [fileURLToPath(new URL("./fft_numpy.py", import.meta.url)), ...(quick ? ["--quick"] : [])], { encoding: "utf8" });
+        if (py.status === 0) npPasses.push(JSON.parse(py.stdout) as { library?: string; rows: NpRow[] });
+      }
+      const first = npPasses[0];
+      if (first === undefined) return rows.map((r) => ({ ...r, numpySeconds: "numpy unavailable" }));
+      // numpy's faster pass per shape
+      const ref0 = { library: first.library, rows: first.rows.map((q, i) => npPasses.map((n) => n.rows[i] as NpRow).reduce((a, b) => (b.roundTripSeconds < a.roundTripSeconds ? b : a), q)) };
       return rows.map((r) => {
-        const ref = np.rows.find((q) => q.nx === r["nx"] && q.ny === r["ny"]);
+        const ref = ref0.rows.find((q) => q.nx === r["nx"] && q.ny === r["ny"]);
         const s = r["roundTripSeconds"] as number;
         const ratio = ref === undefined ? null : s / ref.roundTripSeconds;
         const floor = r["backend"] === "f64" ? 2.0 : 0.8; // issue #2: f64 ≤ 2.0× numpy, f32 ≤ 0.8×
-        return { ...r, numpySeconds: ref?.roundTripSeconds ?? null, ratio, floor, withinFloor: ratio === null ? null : ratio <= floor, reference: np.library ?? "" };
+        return { ...r, passes, numpySeconds: ref?.roundTripSeconds ?? null, ratio, floor, withinFloor: ratio === null ? null : ratio <= floor, reference: ref0.library ?? "" };
       });
     },
   },

@@ -9,6 +9,7 @@ import { measureClusters } from "../src/photometry/measure.js";
 import { searchClusters } from "../src/search/blind.js";
 import { gaussianShape } from "../src/mmf/profile.js";
 import { createFitPool, serialFits } from "../src/parallel/fitPool.js";
+import { mergeSizeSlots, sizeArrays } from "../src/parallel/sizeBatch.js";
 import type { CatalogueCluster, SedProvider } from "../src/photometry/types.js";
 import { BANDS3, makeField, tszNonRel, type FieldCluster } from "./photometry-helpers.js";
 
@@ -54,12 +55,46 @@ describe("fit pool", () => {
     expect(one.clusters[0]!.scan!.length).toBe(3);
   }, 60_000);
 
-  it("gives search results identical to one thread", () => {
-    const sopts = { profile: gaussianShape(1), tszSed: sed, sizesArcmin: [0.8, 1.2, 1.8], maxIterations: 1, snrMin: 5 };
+  it("gives search results identical to one thread, with and without depth (ivar) maps", () => {
+    const sopts = { profile: gaussianShape(1), tszSed: sed, sizesArcmin: [0.8, 1.2, 1.8, 2.5], maxIterations: 1, snrMin: 5 };
     const one = searchClusters(stack, sopts);
     expect(one.candidates.length).toBeGreaterThan(5);
-    expect(searchClusters(stack, { ...sopts, fitRunner: pool }).candidates).toEqual(one.candidates);
+    const before = pool.workerFits;
+    const two = searchClusters(stack, { ...sopts, fitRunner: pool });
+    expect(two.candidates).toEqual(one.candidates);
+    expect(two.diagnostics).toEqual(one.diagnostics);
+    expect(pool.workerFits).toBeGreaterThan(before);
+    // depth rising across the field (ivar in 1/K², invented): the local-noise path of the size loop
+    const deep = { ...stack, bands: stack.bands.map((b) => ({ ...b, ivar: Float64Array.from({ length: 128 * 128 }, (_, p) => 1e10 * (1 + (p % 128) / 64)) })) };
+    const oneDeep = searchClusters(deep, sopts);
+    expect(searchClusters(deep, { ...sopts, fitRunner: pool })).toEqual(oneDeep);
+    expect(oneDeep.candidates).not.toEqual(one.candidates);
   }, 60_000);
+
+  it("merges per-thread maxima over sizes into the one-thread result, ties to the smaller size", () => {
+    // two "threads" run in turn on shared counters: slot 1 takes the first two sizes, slot 0 the rest
+    const npix = 6;
+    const maps = [[1, 5, 2, 7, 0, 3], [4, 5, 1, 7, 0, 2], [4, 6, 3, 1, 0, 9], [0, 6, 8, 1, 0, 9]];
+    const fold = (slots: number, order: number[][]) => {
+      const a = sizeArrays(maps.length, npix, slots, false);
+      for (const [slot, ...ks] of order) {
+        for (const k of ks) {
+          for (let p = 0; p < npix; p++) {
+            if (maps[k]![p]! > a.best[slot!]![p]!) {
+              a.best[slot!]![p] = maps[k]![p]!;
+              a.arg[slot!]![p] = k;
+            }
+          }
+        }
+      }
+      return mergeSizeSlots(a);
+    };
+    const one = fold(1, [[0, 0, 1, 2, 3]]);
+    expect(Array.from(one.best)).toEqual([4, 6, 8, 7, 0, 9]);
+    expect(Array.from(one.arg)).toEqual([1, 2, 3, 0, 0, 2]);
+    const two = fold(2, [[1, 0, 1], [0, 2, 3]]);
+    expect(two).toEqual(one);
+  });
 
   it("returns null for a singular fit (a deprojected tSZ) in request order", async () => {
     const { prepareStack } = await import("../src/photometry/prepare.js");

@@ -9,6 +9,7 @@
 import { UmbraError } from "@umbra/core";
 import type { Rfft2Plan } from "@umbra/maps";
 import type { FilterBank } from "./bank.js";
+import type { FitBank } from "./fit.js";
 import { profileAt, type ProfileTable } from "./profile.js";
 import { sedNodeTable } from "./fit.js";
 
@@ -39,7 +40,7 @@ export function prepareSedFilter(bank: FilterBank, sed: Float64Array): SedFilter
 }
 
 /** σ of the central amplitude for profile scale `thetaRad` (units of the SED's amplitude). */
-export function filterSigma(bank: FilterBank, table: ProfileTable, thetaRad: number, filter: SedFilter): number {
+export function filterSigma(bank: FitBank, table: ProfileTable, thetaRad: number, filter: SedFilter): number {
   const { hermitianWeight, modeCount } = bank.layout;
   const { index, frac } = bank.grid;
   const theta2 = thetaRad * thetaRad;
@@ -60,7 +61,7 @@ export function filterSigma(bank: FilterBank, table: ProfileTable, thetaRad: num
  * Fill `out` (nx·ny) with ŷ(x) for scale `thetaRad`; returns σ. `scratch` is a spectrum-sized buffer.
  */
 export function filteredMap(
-  bank: FilterBank,
+  bank: FitBank,
   plan: Rfft2Plan,
   table: ProfileTable,
   thetaRad: number,

@@ -33,8 +33,11 @@ export interface FitScratch {
   readonly ey: Float64Array;
 }
 
-/** The parts of a {@link FilterBank} that {@link fitAtPosition} reads (what a fit thread receives). */
-export type FitBank = Pick<FilterBank, "nBands" | "geometry" | "layout" | "grid" | "ells" | "nPix" | "pixelSr" | "whitened" | "qNodes">;
+/**
+ * The parts of a {@link FilterBank} that fits and filtered maps read (what a worker thread
+ * receives: arrays only, no beam functions).
+ */
+export type FitBank = Pick<FilterBank, "nBands" | "geometry" | "layout" | "grid" | "ells" | "nPix" | "pixelSr" | "whitened" | "qNodes" | "beamNodes">;
 
 /** Allocate the scratch arrays for {@link fitAtPosition} on `bank`. */
 export function createFitScratch(bank: Pick<FitBank, "geometry">): FitScratch {

@@ -8,7 +8,7 @@
  * (the filter's response to white noise of that band; derivation in docs/matched-filter.md;
  * common practice for a filter whose weights vary slowly with depth, no source).
  */
-import type { FilterBank } from "./bank.js";
+import type { FitBank } from "./fit.js";
 import { profileAt, type ProfileTable } from "./profile.js";
 
 /** Per-band white-noise description of a stack with ivar maps. */
@@ -52,7 +52,7 @@ export function whiteNoiseModel(ivar: readonly (Float64Array | null)[], window: 
 }
 
 /** σ²_w,i for every band at profile scale `thetaRad` and SED `sed` (see module doc), given σ. */
-export function whiteNoiseShares(bank: FilterBank, table: ProfileTable, thetaRad: number, sed: Float64Array, sigma: number, meanVariance: Float64Array): Float64Array {
+export function whiteNoiseShares(bank: FitBank, table: ProfileTable, thetaRad: number, sed: Float64Array, sigma: number, meanVariance: Float64Array): Float64Array {
   const nb = bank.nBands;
   const nN = bank.grid.nNodes;
   // u_i(node) = (Q a)_i² / B_i², evaluated at the nodes
@@ -92,7 +92,7 @@ export function localSigmaFactor(shares: Float64Array, sigma: number, model: Whi
 const shares = new WeakMap<object, Float64Array>();
 
 /** Each node's Hermitian-weighted share of the Fourier modes (linear-interpolation weights). */
-function nodeModeWeights(bank: FilterBank): Float64Array {
+function nodeModeWeights(bank: FitBank): Float64Array {
   let w = shares.get(bank.grid);
   if (w !== undefined) return w;
   w = new Float64Array(bank.grid.nNodes);

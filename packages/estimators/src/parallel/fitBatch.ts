@@ -7,6 +7,7 @@ import { UmbraError } from "@umbra/core";
 import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable, type ComponentFit, type FitBank } from "../mmf/fit.js";
 import type { FilterBank } from "../mmf/bank.js";
 import type { ProfileTable } from "../mmf/profile.js";
+import type { SedFilter } from "../mmf/filteredMap.js";
 
 /** One fit: the components' SEDs (with a key: same key ⇒ same SEDs), the profile scale and the pixel position (0-based). */
 export interface FitRequest {
@@ -109,4 +110,9 @@ export function batchResult(a: BatchArrays, i: number, nc: number): ComponentFit
   if (s !== FIT_OK) throw new UmbraError("INTERNAL", `matched-filter fit ${i} of a batch failed (status ${s})`);
   const o = i * a.stride;
   return { amplitudes: a.results.slice(o, o + nc), covariance: a.results.slice(o + nc, o + nc + nc * nc) };
+}
+
+/** The single-SED filter of a one-SED set (what filtered maps take). */
+export function sedFilterOf(set: SedSet): SedFilter {
+  return { sed: set.seds[0] as Float64Array, combined: set.combined[0] as Float64Array, nodeTable: set.nodeTable };
 }

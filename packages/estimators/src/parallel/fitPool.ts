@@ -10,7 +10,10 @@ import { UmbraError, startWorker } from "@umbra/core";
 import type { FilterBank } from "../mmf/bank.js";
 import type { ComponentFit, FitBank } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
-import { batchArrays, batchResult, runBatchTasks, sedSets, type FitRequest, type SedSet } from "./fitBatch.js";
+import { batchArrays, batchResult, runBatchTasks, sedSets, sedFilterOf, type FitRequest, type SedSet } from "./fitBatch.js";
+import { mergeSizeSlots, runSizeTasks, sizeArrays } from "./sizeBatch.js";
+import type { Rfft2Plan } from "@umbra/maps";
+import type { WhiteNoiseModel } from "../mmf/localNoise.js";
 import type { WorkerMessage } from "./fitWorker.js";
 
 /** Runs batches of fits; see module doc. */
@@ -19,6 +22,20 @@ export interface FitRunner {
   readonly threads: number;
   /** Fit every request on `bank` (null where the Fisher matrix is singular), in request order. */
   fitMany(bank: FilterBank, table: ProfileTable, requests: readonly FitRequest[]): (ComponentFit | null)[];
+  /**
+   * The S/N maps of a single-SED filter at every size (radians) on `bank`, folded into the best S/N
+   * per pixel and the index of the size that gave it, plus each size's σ. `onMap` (given: this
+   * thread runs every size, in order) sees each S/N map.
+   */
+  bestOverSizes(
+    bank: FilterBank,
+    plan: Rfft2Plan,
+    table: ProfileTable,
+    filter: { sed: Float64Array; sedKey: string },
+    sizesRad: readonly number[],
+    noise: WhiteNoiseModel | null,
+    onMap?: (k: number, snr: Float64Array) => void,
+  ): { best: Float64Array; arg: Uint8Array; sigmas: Float64Array };
   /** Resolves when every worker thread has loaded (batches before that start with fewer threads). */
   whenReady(): Promise<void>;
   /** Fits computed so far by worker threads (not this one): a diagnostic. */
@@ -38,6 +55,12 @@ export const serialFits: FitRunner = {
     const a = batchArrays(requests, index, false);
     runBatchTasks(bank, table, sets, a);
     return requests.map((r, i) => batchResult(a, i, r.seds.length));
+  },
+  bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
+    const set = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, thetaRad: 0, px: 0, py: 0 }]).sets[0] as SedSet;
+    const a = sizeArrays(sizesRad.length, plan.nx * plan.ny, 1, false);
+    runSizeTasks(bank, plan, table, sedFilterOf(set), Float64Array.from(sizesRad), noise, a, 0, onMap);
+    return { best: a.best[0] as Float64Array, arg: a.arg[0] as Uint8Array, sigmas: a.sigmas };
   },
   whenReady: async () => undefined,
   workerFits: 0,
@@ -59,6 +82,7 @@ function portableBank(bank: FilterBank): FitBank {
     nPix: bank.nPix,
     pixelSr: bank.pixelSr,
     qNodes: bank.qNodes,
+    beamNodes: bank.beamNodes,
     whitened: [],
   };
 }
@@ -89,6 +113,41 @@ export function createFitPool(threads: number): FitRunner {
   const post = (m: WorkerMessage): void => {
     for (const w of workers) w.postMessage(m);
   };
+  /** Make sure the workers hold `bank` and the SED sets `keys`; returns the bank's id. */
+  const share = (bank: FilterBank, keys: readonly string[], sets: readonly SedSet[]): number => {
+    let id = ids.get(bank);
+    let entry = id === undefined ? undefined : live.find((e) => e.id === id);
+    if (id === undefined || entry === undefined) {
+      id = nextId++;
+      ids.set(bank, id);
+      entry = { id, keys: new Set() };
+      live.push(entry);
+      post({ kind: "bank", id, bank: portableBank(bank) });
+      while (live.length > KEPT_CONTEXTS) post({ kind: "drop", id: (live.shift() as { id: number }).id });
+    }
+    const fresh = keys.flatMap((k, q) => (entry!.keys.has(k) ? [] : [{ key: k, set: sets[q] as SedSet }]));
+    if (fresh.length > 0) {
+      post({ kind: "sets", id, sets: fresh });
+      for (const f of fresh) entry.keys.add(f.key);
+    }
+    return id;
+  };
+  const noiseIds = new WeakMap<WhiteNoiseModel, number>();
+  /** Wait until `control[1]` reaches `n` (the batch's tasks are all finished). */
+  const waitFor = (control: Int32Array, n: number, what: string): void => {
+    let last = Atomics.load(control, 1);
+    let since = Date.now();
+    while (last < n) {
+      Atomics.wait(control, 1, last, 1000);
+      const now = Atomics.load(control, 1);
+      if (now !== last) {
+        last = now;
+        since = Date.now();
+      } else if (Date.now() - since > STALL_MS) {
+        throw new UmbraError("INTERNAL", `a worker thread stopped in the middle of a batch (${n - last} of ${n} ${what} unfinished)`);
+      }
+    }
+  };
   return {
     threads,
     fitMany(bank, table, requests) {
@@ -97,39 +156,33 @@ export function createFitPool(threads: number): FitRunner {
       const a = batchArrays(requests, index, true);
       // only batches of several fits are worth posting (the bank's arrays are copied once per bank)
       if (requests.length > 1 && workers.length > 0) {
-        let id = ids.get(bank);
-        let entry = id === undefined ? undefined : live.find((e) => e.id === id);
-        if (id === undefined || entry === undefined) {
-          id = nextId++;
-          ids.set(bank, id);
-          entry = { id, keys: new Set() };
-          live.push(entry);
-          post({ kind: "bank", id, bank: portableBank(bank) });
-          while (live.length > KEPT_CONTEXTS) post({ kind: "drop", id: (live.shift() as { id: number }).id });
-        }
-        const fresh = keys.flatMap((k, q) => (entry!.keys.has(k) ? [] : [{ key: k, set: sets[q] as SedSet }]));
-        if (fresh.length > 0) {
-          post({ kind: "sets", id, sets: fresh });
-          for (const f of fresh) entry.keys.add(f.key);
-        }
+        const id = share(bank, keys, sets);
         post({ kind: "batch", id, table: { ...table }, keys, arrays: a });
       }
       runBatchTasks(bank, table, sets, a);
-      const n = requests.length;
-      let last = Atomics.load(a.control, 1);
-      let since = Date.now();
-      while (last < n) {
-        Atomics.wait(a.control, 1, last, 1000);
-        const now = Atomics.load(a.control, 1);
-        if (now !== last) {
-          last = now;
-          since = Date.now();
-        } else if (Date.now() - since > STALL_MS) {
-          throw new UmbraError("INTERNAL", `a fit thread stopped in the middle of a batch (${n - last} of ${n} fits unfinished)`);
-        }
-      }
+      waitFor(a.control, requests.length, "fits");
       workerFits += Atomics.load(a.control, 2);
       return requests.map((r, i) => batchResult(a, i, r.seds.length));
+    },
+    bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
+      if (onMap !== undefined || workers.length === 0 || sizesRad.length < 2) return serialFits.bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap);
+      const { sets, keys } = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, thetaRad: 0, px: 0, py: 0 }]);
+      const id = share(bank, keys, sets);
+      let noiseId: number | null = null;
+      if (noise !== null) {
+        noiseId = noiseIds.get(noise) ?? null;
+        if (noiseId === null) {
+          noiseId = nextId++;
+          noiseIds.set(noise, noiseId);
+          post({ kind: "noise", id: noiseId, noise: { meanVariance: noise.meanVariance, varianceRatio: noise.varianceRatio } });
+        }
+      }
+      const a = sizeArrays(sizesRad.length, plan.nx * plan.ny, workers.length + 1, true);
+      const radians = Float64Array.from(sizesRad);
+      workers.forEach((w, t) => w.postMessage({ kind: "sizes", id, key: filter.sedKey, table: { ...table }, sizesRad: radians, noiseId, arrays: a, slot: t + 1 } satisfies WorkerMessage));
+      runSizeTasks(bank, plan, table, sedFilterOf(sets[0] as SedSet), radians, noise, a, 0);
+      waitFor(a.control, sizesRad.length, "filter sizes");
+      return { ...mergeSizeSlots(a), sigmas: Float64Array.from(a.sigmas) };
     },
     whenReady: () => ready,
     get workerFits() {

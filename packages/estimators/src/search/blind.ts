@@ -10,7 +10,6 @@ import { pixelToWorld } from "@umbra/maps";
 import { buildFilterBank, type FilterBank } from "../mmf/bank.js";
 import type { ComponentFit } from "../mmf/fit.js";
 import { serialFits, type FitRunner } from "../parallel/fitPool.js";
-import { filteredMap, prepareSedFilter } from "../mmf/filteredMap.js";
 import { tabulateProfile, type ProfileShape, type ProfileTable } from "../mmf/profile.js";
 import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares, type WhiteNoiseModel } from "../mmf/localNoise.js";
 import { deconvolveBeams, estimateBandCovariance, type CovarianceOptions } from "../noise/estimate.js";
@@ -114,36 +113,15 @@ function searchPass(
   tszSed: Float64Array,
   onSnrMap: SearchOptions["onSnrMap"],
   noise: WhiteNoiseModel | null,
-  onSize: (k: number) => void,
+  runner: FitRunner,
 ): { raws: Raw[]; sigmas: number[] } {
   const { nx, ny } = prep.stack;
-  const npix = nx * ny;
-  const best = new Float64Array(npix).fill(-Infinity);
-  const arg = new Uint8Array(npix);
-  const map = new Float64Array(npix);
-  const scratch = new Float64Array(bank.layout.spectrumLength);
-  const filter = prepareSedFilter(bank, tszSed);
-  const sigmas: number[] = [];
-  sizes.forEach((th, k) => {
-    onSize(k);
-    const sigma = filteredMap(bank, prep.plan, table, th * RAD_PER_ARCMIN, filter, map, scratch);
-    sigmas.push(sigma);
-    const shares = noise === null ? null : whiteNoiseShares(bank, table, th * RAD_PER_ARCMIN, tszSed, sigma, noise.meanVariance);
-    for (let p = 0; p < npix; p++) {
-      const local = shares === null || noise === null ? sigma : sigma * localSigmaFactor(shares, sigma, noise, p);
-      const s = (map[p] as number) / local;
-      map[p] = s;
-      if (s > (best[p] as number)) {
-        best[p] = s;
-        arg[p] = k;
-      }
-    }
-    onSnrMap?.(th, map);
-  });
+  const onMap = onSnrMap === undefined ? undefined : (k: number, map: Float64Array) => onSnrMap(sizes[k] as number, map);
+  const { best, arg, sigmas } = runner.bestOverSizes(bank, prep.plan, table, { sed: tszSed, sedKey: "tsz" }, sizes.map((th) => th * RAD_PER_ARCMIN), noise, onMap);
   const peaks = findPeaks(best, nx, ny, snrMin, allowed);
   return {
     raws: peaks.map((p) => ({ px: p.px, py: p.py, ix: p.ix, iy: p.iy, snr: p.snr, posErrPix: p.positionErrPix, sizeIndex: arg[p.iy * nx + p.ix] as number })),
-    sigmas,
+    sigmas: Array.from(sigmas),
   };
 }
 
@@ -191,8 +169,9 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
   const runner = opts.fitRunner ?? serialFits;
   for (let it = 0; it <= maxIt; it++) {
     const last = it === maxIt;
-    const onSize = (k: number): void => opts.onProgress?.(`pass ${it + 1}/${maxIt + 1}`, k, sizes.length);
-    const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined, noise, onSize);
+    opts.onProgress?.(`pass ${it + 1}/${maxIt + 1}`, 0, 2);
+    const pass = searchPass(bank, prep, table, sizes, snrMin, allowed, opts.tszSed, last ? opts.onSnrMap : undefined, noise, runner);
+    opts.onProgress?.(`pass ${it + 1}/${maxIt + 1}`, 1, 2);
     sigmas = pass.sigmas;
     const kept = deblendPeaks(pass.raws, (k) => Math.max(sizes[k.sizeIndex] as number, maxBeam) / pixArcmin);
     // cleaning passes only need each detection's fit at its best size; the last pass scans all
@@ -200,6 +179,7 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
       sizes.flatMap((th, i) => (last || i === r.sizeIndex ? [{ seds: [opts.tszSed], sedKey: "tsz", thetaRad: th * RAD_PER_ARCMIN, px: r.px, py: r.py }] : [])),
     );
     const fits = runner.fitMany(bank, table, requests);
+    opts.onProgress?.(`pass ${it + 1}/${maxIt + 1}`, 2, 2);
     let at = 0;
     cands = kept.flatMap((r, k) => {
       const mine = sizes.map((_, i) => (last || i === r.sizeIndex ? (fits[at++] ?? null) : null));

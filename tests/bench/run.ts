@@ -166,6 +166,15 @@ const SECTIONS: Section[] = [
       return rows;
     },
   },
+  {
+    name: "threads",
+    title: "Worker-thread speed-up (forced photometry and blind search)",
+    what: "`umbra measure` (truth catalogue, masses) and `umbra search` (15 sizes) of the invented 1024² three-band deep field (deep-1024-timing scenario; quick: 256²), whole map and in sky tiles, each with `--workers 1` and `--workers 2`; the two write identical files (checked). Speed-up = one-thread time ÷ this time, thread start-up included.",
+    async run(quick) {
+      const { benchThreads } = await import("./threads.js");
+      return (await benchThreads({ quick })) as unknown as Row[];
+    },
+  },
 ];
 
 function fmt(v: unknown): string {

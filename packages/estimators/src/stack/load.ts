@@ -14,6 +14,8 @@ import {
   readFitsImage,
   readNumericTable,
   reproject,
+  convertibleFrame,
+  frameOf,
   sameGrid,
   type BandSpec as ManifestBand,
   type SkyMap,
@@ -44,7 +46,10 @@ function onGrid(map: SkyMap, ref: SkyMap, name: string, what: string, allow: boo
   if (sameGrid(map, ref)) return map.data;
   if (!allow) throw new UmbraError("BAD_DATA", `${what} is not on the first band's pixel grid (reprojection disabled)`, { band: name });
   if (ref.wcs === null) throw new UmbraError("BAD_WCS", "the first band has no celestial WCS to reproject onto", { band: name });
-  warnings.push(`band '${name}': ${what} reprojected (bicubic) onto the first band's grid`);
+  const from = map.wcs === null ? null : convertibleFrame(frameOf(map.wcs));
+  const to = convertibleFrame(frameOf(ref.wcs));
+  const frames = from !== null && to !== null && from !== to ? `, ${from} → ${to}` : "";
+  warnings.push(`band '${name}': ${what} reprojected (bicubic${frames}) onto the first band's grid`);
   return reproject(map, { nx: ref.nx, ny: ref.ny, wcs: ref.wcs }).data;
 }
 

@@ -131,7 +131,8 @@ def main(folder):
     qn = np.einsum("ni,i->n", Qa, a)
     q = qn[idx] * (1 - t) + qn[idx + 1] * t
     KX = np.arange(kx.size)
-    KY = np.where(np.arange(n) <= n // 2, np.arange(n), np.arange(n) - n)
+    # numpy's own frequency order (fftfreq: the Nyquist row is -n/2), as umbra's layout and fit use it
+    KY = np.rint(np.fft.fftfreq(n) * n).astype(int)
     y0 = []
     for c in meta["clusters"]:
         th = c["theta500Arcmin"] * np.pi / (180 * 60)

@@ -100,7 +100,16 @@ describe("umbra measure --tile: shards, merge, workers, resume", () => {
     expect(other.err).toContain("tile 0 of another run");
   }, 120_000);
 
-  it("refuses --shard or --resume without --tile, and a margin narrower than the taper", async () => {
+  it("rerun with another tile size into the same folder: the earlier run's tile files are ignored", async () => {
+    const out = join(dir, "m-rerun", "results.csv");
+    expect((await capture([...measureArgs(), "--out", out])).code).toBe(0);
+    const coarse = measureArgs().map((a, i, all) => (all[i - 1] === "--tile" ? "3" : a));
+    const r = await capture([...coarse, "--out", out, "--json"]);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(read(join(dir, "m-rerun", "results.json"))).diagnostics.tiles.length).toBe(1);
+  }, 120_000);
+
+    it("refuses --shard or --resume without --tile, and a margin narrower than the taper", async () => {
     const base = ["measure", "--bands", manifest, "--catalog", catalog, "--out", join(dir, "x.csv")];
     for (const extra of [["--shard", "1/2"], ["--resume"]]) {
       const r = await capture([...base, ...extra]);

@@ -29,7 +29,7 @@ import {
 import { readClusterCatalog, writeCsvAtomic, writeTextAtomic, type CsvValue } from "@umbra/maps";
 import { VERSION } from "../version.js";
 import { parseShard, type Shard } from "../shard.js";
-import { collectTiles, readTileDirs, tileDirFor, type TileRun } from "../tiles/files.js";
+import { collectTiles, readTileDirs, readTileFile, tileDirFor, type TileRun } from "../tiles/files.js";
 import { deprojectNames, deprojectSedsFor, measureStack, tilesOf, TILE_SEED_STRIDE, type CatalogueRow, type MeasureSettings, type TileOutput } from "../tiles/jobs.js";
 import { runTiles } from "../tiles/run.js";
 import { stageProgress } from "../progress.js";
@@ -209,7 +209,6 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   for (const w of stack.warnings) process.stderr.write(`umbra: warning: ${w}\n`);
   const catalog = await readClusterCatalog(o.catalog);
   for (const p of catalog.problems) process.stderr.write(`umbra: warning: ${o.catalog}, row ${p.row}, column '${p.column}': ${p.message} (row skipped)\n`);
-  deprojectSedsFor(stack, s.deproject, s.dustBeta, s.dustTempK);
   let noiseCovariance: MeasureOptions["noiseCovariance"];
   const simInputs: { path: string; sha256: string }[] = [];
   const simPaths = (o.noiseSims ?? "").split(",").map((x) => x.trim()).filter((x) => x.length > 0);
@@ -247,23 +246,35 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   const dir = tileDirFor(o.out);
   progress(`umbra measure: ${rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}, ${tiles.length} tiles${shard === null ? "" : ` (shard ${shard.index}/${shard.count})`}`);
   const done = await runTiles(stack, (t) => ({ kind: "measure", manifestPath: resolve(o.bands), tiling, tile: t, settings: s, rows }), { dir, run, shard, resume: o.resume === true, workers, label: "measure tiles" });
-  await finishTiles(o.out, o.json === true, dir, shard, done, "measure");
+  await finishTiles(o.out, o.json === true, dir, shard, done, run);
 }
 
 /** After a tiled run: a sharded one says what it wrote; a whole one writes the outputs from the tile files. */
-export async function finishTiles(out: string, json: boolean, dir: string, shard: Shard | null, done: { computed: number; skipped: number; owned: number[] }, command: "measure" | "search"): Promise<void> {
+export async function finishTiles(out: string, json: boolean, dir: string, shard: Shard | null, done: { computed: number; skipped: number; owned: number[] }, run: TileRun): Promise<void> {
   if (shard !== null && shard.count > 1) {
-    process.stderr.write(`umbra ${command}: shard ${shard.index}/${shard.count}: tiles ${done.owned.length === 0 ? "none" : `${done.owned[0]}–${done.owned[done.owned.length - 1]}`} in ${dir} (${done.computed} computed, ${done.skipped} already there); when every shard is done, join them with: umbra merge --out ${out} ${dir} [the other shards' tile folders, if not this one]\n`);
+    process.stderr.write(`umbra ${run.command}: shard ${shard.index}/${shard.count}: tiles ${done.owned.length === 0 ? "none" : `${done.owned[0]}–${done.owned[done.owned.length - 1]}`} in ${dir} (${done.computed} computed, ${done.skipped} already there); when every shard is done, join them with: umbra merge --out ${out} ${dir} [the other shards' tile folders, if not this one]\n`);
     return;
   }
-  await writeFromTileDirs(out, json, [dir]);
+  // this run's tiles only: files of an earlier run with other settings may share the folder
+  const results = [];
+  for (let t = 0; t < run.tileCount; t++) {
+    const f = await readTileFile(dir, t);
+    if (f === null || f.run.runKey !== run.runKey) throw new UmbraError("NOT_FOUND", `tile ${t} of this run is missing from ${dir}`, { file: dir });
+    results.push(f.result);
+  }
+  await writeTiledOutputs(out, json, run, results);
+}
+
+/** Write the final outputs of a tiled measure or search run from its tile results (tile order). */
+async function writeTiledOutputs(out: string, json: boolean, run: TileRun, results: readonly TileOutput[]): Promise<void> {
+  if (run.command === "measure") await writeTiledMeasureOutputs(out, json, run.meta as unknown as MeasureMeta, results);
+  else await writeTiledSearchOutputs(out, json, run.meta as unknown as SearchMeta, results);
 }
 
 /** Write the final outputs of a tiled run from the tile files in `dirs` (also `umbra merge`). */
 export async function writeFromTileDirs(out: string, json: boolean, dirs: readonly string[]): Promise<void> {
   const { run, results } = collectTiles(await readTileDirs(dirs));
-  if (run.command === "measure") await writeTiledMeasureOutputs(out, json, run.meta as unknown as MeasureMeta, results);
-  else await writeTiledSearchOutputs(out, json, run.meta as unknown as SearchMeta, results);
+  await writeTiledOutputs(out, json, run, results);
 }
 
 /** The run key: SHA-256 of the command, version and everything that decides the results. */

@@ -123,7 +123,7 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
     const dir = tileDirFor(o.out);
     progress(`umbra search: ${stack.bands.length} bands ${stack.nx}×${stack.ny}, ${tiles.length} tiles${shard === null ? "" : ` (shard ${shard.index}/${shard.count})`}`);
     const done = await runTiles(stack, (t) => ({ kind: "search", manifestPath: resolve(o.bands), tiling, tile: t, settings: s }), { dir, run, shard, resume: o.resume === true, workers, label: "search tiles" });
-    await finishTiles(o.out, o.json === true, dir, shard, done, "search");
+    await finishTiles(o.out, o.json === true, dir, shard, done, run);
     return;
   }
   const snrMaps: { theta: number; map: Float32Array }[] = [];

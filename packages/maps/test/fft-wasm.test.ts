@@ -1,5 +1,5 @@
 /**
- * The WebAssembly SIMD kernel (wasm-lanes.ts, wasm-rows.ts, written by wasm-emit.ts): its LEB128
+ * The WebAssembly SIMD kernel (wasm-lanes.ts, wasm-rows.ts, written by ../wasm/emit.ts): its LEB128
  * encoder against the DWARF examples, the batched kernel against the scalar JS kernel and a direct
  * DFT, and the float64 2-D plan with and without wasm against numpy's rfft2 / irfft2
  * (fixtures/fourier/rfft2_reference.json, made by fixtures/fourier/make_reference.py).
@@ -8,7 +8,7 @@ import { describe, expect, it } from "vitest";
 import { createRng } from "@umbra/core";
 import { MixedRadixLanes } from "../src/fourier/mixed-radix.js";
 import { WasmLanes, laneModule } from "../src/fourier/wasm-lanes.js";
-import { sleb, uleb } from "../src/fourier/wasm-emit.js";
+import { sleb, uleb } from "../src/wasm/emit.js";
 import { Rfft2PlanF64 } from "../src/fourier/rfft2-f64.js";
 import { maxAbs, ref, toLayout } from "./fft-fixtures.js";
 

@@ -11,31 +11,14 @@
  * Where WebAssembly SIMD is unavailable (e.g. `node --jitless`) Node's `Buffer.swapNN` is used.
  */
 
+import { writeModule } from "../wasm/emit.js";
+import { wasmApi } from "../wasm/api.js";
+
 /** Bytes of the scratch memory (4 WebAssembly pages of 64 KiB): large enough to amortise calls, small enough for L2. */
 export const SWAP_CHUNK_BYTES = 4 * 65536;
 
 /** Widths of the values that can be swapped. */
 export type SwapWidth = 2 | 4 | 8;
-
-/** Unsigned LEB128 (WebAssembly Core Specification 2.0 §5.2.2). */
-function leb(n: number): number[] {
-  const out: number[] = [];
-  do {
-    let b = n & 0x7f;
-    n >>>= 7;
-    if (n !== 0) b |= 0x80;
-    out.push(b);
-  } while (n !== 0);
-  return out;
-}
-
-function section(id: number, body: number[]): number[] {
-  return [id, ...leb(body.length), ...body];
-}
-
-function name(s: string): number[] {
-  return [s.length, ...Array.from(s, (c) => c.charCodeAt(0))];
-}
 
 /** Lane order that reverses every group of `width` bytes within a 16-byte vector. */
 function reverseLanes(width: SwapWidth): number[] {
@@ -45,13 +28,12 @@ function reverseLanes(width: SwapWidth): number[] {
 }
 
 /**
- * Body of `swap(p, n)`: for (end = p + n; p < end; p += 16) store(p, swizzle(load(p), lanes)).
+ * Code of `swap(p, n)`: for (end = p + n; p < end; p += 16) store(p, swizzle(load(p), lanes)).
  * `n` must be a multiple of 16 (the caller swaps the remainder). Opcodes: Core Spec 2.0 §5.4.
  */
-function swapBody(width: SwapWidth): number[] {
+function swapCode(width: SwapWidth): number[] {
   const memarg = [0x04, 0x00]; // alignment 2^4, offset 0
-  const code = [
-    0x00, // no locals
+  return [
     0x20, 0x00, 0x20, 0x01, 0x6a, 0x21, 0x01, // n = p + n (the end)
     0x02, 0x40, 0x03, 0x40, // block, loop
     0x20, 0x00, 0x20, 0x01, 0x4f, 0x0d, 0x01, // if p >= end break
@@ -62,23 +44,14 @@ function swapBody(width: SwapWidth): number[] {
     0xfd, 0x0b, ...memarg, // v128.store
     0x20, 0x00, 0x41, 0x10, 0x6a, 0x21, 0x00, // p += 16
     0x0c, 0x00, // continue
-    0x0b, 0x0b, 0x0b, // end loop, end block, end function
+    0x0b, 0x0b, // end loop, end block
   ];
-  return [...leb(code.length), ...code];
 }
 
-/** The module: one memory of SWAP_CHUNK_BYTES exported as "m", and s2/s4/s8(p, n). */
+/** The module (../wasm/emit.ts): s2/s4/s8(p, n) on an imported memory of SWAP_CHUNK_BYTES. */
 function moduleBytes(): Uint8Array {
   const widths: SwapWidth[] = [2, 4, 8];
-  const bodies = widths.flatMap(swapBody);
-  return new Uint8Array([
-    0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00, // magic, version 1
-    ...section(1, [0x01, 0x60, 0x02, 0x7f, 0x7f, 0x00]), // type: (i32, i32) -> ()
-    ...section(3, [0x03, 0x00, 0x00, 0x00]), // three functions of that type
-    ...section(5, [0x01, 0x00, ...leb(SWAP_CHUNK_BYTES / 65536)]), // one memory
-    ...section(7, [0x04, ...name("m"), 0x02, 0x00, ...name("s2"), 0x00, 0x00, ...name("s4"), 0x00, 0x01, ...name("s8"), 0x00, 0x02]),
-    ...section(10, [0x03, ...bodies]),
-  ]);
+  return writeModule(widths.map((w) => ({ name: `s${w}`, params: 2, locals: [], code: swapCode(w) })), SWAP_CHUNK_BYTES / 65536);
 }
 
 interface SimdSwap {
@@ -86,21 +59,14 @@ interface SimdSwap {
   fns: Record<SwapWidth, (p: number, n: number) => void>;
 }
 
-/** The part of the WebAssembly JS API used here (the project's TypeScript libs carry no WebAssembly types). */
-interface WasmApi {
-  Module: new (bytes: Uint8Array) => object;
-  Instance: new (module: object) => { exports: Record<string, unknown> };
-}
-
 let simd: SimdSwap | null | undefined;
 
 function loadSimd(): SimdSwap | null {
   if (simd !== undefined) return simd;
   try {
-    const wasm = (globalThis as unknown as { WebAssembly?: WasmApi }).WebAssembly;
-    if (wasm === undefined) return (simd = null);
-    const ex = new wasm.Instance(new wasm.Module(moduleBytes())).exports;
-    const mem = ex["m"] as { buffer: ArrayBuffer };
+    if (wasmApi === undefined) return (simd = null);
+    const mem = new wasmApi.Memory({ initial: SWAP_CHUNK_BYTES / 65536 });
+    const ex = new wasmApi.Instance(new wasmApi.Module(moduleBytes()), { env: { mem } }).exports;
     const fn = (k: string): ((p: number, n: number) => void) => ex[k] as (p: number, n: number) => void;
     simd = { bytes: new Uint8Array(mem.buffer, 0, SWAP_CHUNK_BYTES), fns: { 2: fn("s2"), 4: fn("s4"), 8: fn("s8") } };
     // one self-check, so a wrong module never corrupts data silently

@@ -22,6 +22,7 @@ import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { dirname, join } from "node:path";
 import type { Rfft2PlanF32, SpectrumLayout } from "./types.js";
+import { wasmApi } from "../wasm/api.js";
 
 const PFFFT_FORWARD = 0;
 const PFFFT_BACKWARD = 1;
@@ -38,7 +39,7 @@ let modulePromise: Promise<Loaded> | null = null;
 
 /** The first WebAssembly.Memory among a wasm instance's exports. */
 function exportedMemory(exports: Record<string, unknown>): object | null {
-  const Memory = (globalThis as unknown as { WebAssembly?: { Memory: abstract new (...a: never[]) => object } }).WebAssembly?.Memory;
+  const Memory = wasmApi?.Memory;
   if (Memory === undefined) return null;
   for (const v of Object.values(exports)) if (v instanceof Memory) return v;
   return null;
@@ -53,7 +54,7 @@ function exportedMemory(exports: Record<string, unknown>): object | null {
 function loadPffft(): Promise<Loaded> {
   if (modulePromise === null) {
     modulePromise = import("@echogarden/pffft-wasm/simd").then(async (m) => {
-      const api = (globalThis as unknown as { WebAssembly?: { Module: new (b: Uint8Array) => object; Instance: new (m: object, i: unknown) => { exports: Record<string, unknown> } } }).WebAssembly;
+      const api = wasmApi;
       let memory: object | null = null;
       try {
         if (api === undefined) throw new Error("no WebAssembly");
@@ -61,7 +62,7 @@ function loadPffft(): Promise<Loaded> {
         const compiled = new api.Module(readFileSync(join(dirname(jsPath), "pffft.wasm")));
         const mod = await m.default({
           instantiateWasm(imports: unknown, receive: (instance: object, module: object) => void) {
-            const instance = new api.Instance(compiled, imports);
+            const instance = new api.Instance(compiled, imports as Record<string, Record<string, unknown>>);
             memory = exportedMemory(instance.exports);
             receive(instance, compiled);
             return instance.exports;

@@ -3,7 +3,7 @@
  * butterflies, same lane batching and the same twiddles) compiled at run time to WebAssembly with
  * 128-bit SIMD: one complex double (re, im) is exactly one f64x2 vector, so every lane of every
  * butterfly is a handful of vector operations, with no bounds checks. The module is written by
- * wasm-emit.ts (no toolchain; WebAssembly Core Specification 2.0). Why: docs/fft.md (the scalar JS
+ * ../wasm/emit.ts (no toolchain; WebAssembly Core Specification 2.0). Why: docs/fft.md (the scalar JS
  * kernel left 900×600 above 2× numpy).
  *
  * Each kernel owns its own wasm memory (twiddles, one lane buffer and two work buffers), so no
@@ -11,22 +11,14 @@
  * pointers and strides; the row helpers (wasm-rows.ts) pack and split real row pairs.
  */
 import { smoothRadices, type LaneFft } from "./mixed-radix.js";
-import { writeModule } from "./wasm-emit.js";
+import { writeModule } from "../wasm/emit.js";
+import { wasmApi } from "../wasm/api.js";
 import { rowFunctions } from "./wasm-rows.js";
 import { stageFunctions } from "./wasm-stages.js";
 
 /** Runs at least this long (doubles) are copied with TypedArray.set. */
 const SET_MIN = 64;
 
-/** The parts of the WebAssembly JS API used here (the project's type libraries do not declare it). */
-interface WasmApi {
-  validate(bytes: Uint8Array): boolean;
-  Module: new (bytes: Uint8Array) => object;
-  Instance: new (module: object, imports: Record<string, Record<string, unknown>>) => { exports: Record<string, unknown> };
-  Memory: new (descriptor: { initial: number }) => { buffer: ArrayBuffer };
-}
-
-const wasmApi = (globalThis as unknown as { WebAssembly?: WasmApi }).WebAssembly;
 
 let compiled: object | null | undefined;
 

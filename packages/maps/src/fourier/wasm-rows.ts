@@ -9,7 +9,7 @@
  * Lane layout as in the kernel: element x of lane (row pair) v at byte (x·P + v)·16, P = pairs.
  * Staged real rows: row 2v at byte 2v·nx·8, row 2v+1 right after it.
  */
-import { Body, Op, countedLoop, type FunctionBody } from "./wasm-emit.js";
+import { Body, Op, countedLoop, type FunctionBody } from "../wasm/emit.js";
 
 const SWAP = [8, 9, 10, 11, 12, 13, 14, 15, 0, 1, 2, 3, 4, 5, 6, 7];
 

@@ -4,9 +4,9 @@
  * butterflies are those of the JS kernel (mixed-radix.ts; Stockham 1966, AFIPS 28, 229;
  * Govindaraju et al. 2008, SC'08, sec. 3), written for f64x2 vectors: a complex product a·w with
  * w = c + i·s is a·(c, c) + swap(a)·(−s, s), and i·dir·a = swap(a)·(−dir, dir) (common practice for
- * interleaved complex SIMD, no single source). Encoding: wasm-emit.ts.
+ * interleaved complex SIMD, no single source). Encoding: ../wasm/emit.ts.
  */
-import { I32, Op, V128, type FunctionBody } from "./wasm-emit.js";
+import { I32, Op, V128, type FunctionBody } from "../wasm/emit.js";
 
 const SIN60 = Math.sqrt(3) / 2;
 const C1 = Math.cos((2 * Math.PI) / 5);

@@ -2,7 +2,7 @@
  * The two transposes of the float32 plan (rfft2-f32.ts) in WebAssembly, running on PFFFT's own
  * memory (imported), so no data crosses into JS: JS loops over typed arrays move 1.3–2.4 ns per
  * element on the benchmark machine, wasm several times less (docs/fft.md). Written by
- * wasm-emit.ts. Both work in 16×16 tiles of complex float32 pairs; nx/2 and ny are multiples of
+ * ../wasm/emit.ts. Both work in 16×16 tiles of complex float32 pairs; nx/2 and ny are multiples of
  * 16 for every shape PFFFT takes (float32SizeProblem).
  *
  * - fwdT(a, b, half, ny): b[k·ny + y] = a[y·half + k] for pairs (8 bytes), k < half, y < ny;
@@ -10,7 +10,8 @@
  *   s the f64 at scalePtr, rounded to float32 as JS would store s·x into a Float32Array.
  * Column 0 is transposed like the others; the caller fixes the kx = 0 and nx/2 slots.
  */
-import { Body, Op, countedLoop, writeModule, type FunctionBody } from "./wasm-emit.js";
+import { Body, Op, countedLoop, writeModule, type FunctionBody } from "../wasm/emit.js";
+import { wasmApi } from "../wasm/api.js";
 
 const TILE = 16;
 const F64_PROMOTE_F32 = [0xbb];
@@ -84,13 +85,6 @@ export interface Transposer {
   invT(b: number, a: number, half: number, ny: number, scalePtr: number): void;
 }
 
-interface WasmApi {
-  validate(bytes: Uint8Array): boolean;
-  Module: new (bytes: Uint8Array) => object;
-  Instance: new (module: object, imports: Record<string, Record<string, unknown>>) => { exports: Record<string, unknown> };
-}
-
-const wasmApi = (globalThis as unknown as { WebAssembly?: WasmApi }).WebAssembly;
 
 /** The transposes running on `memory` (a WebAssembly.Memory), or null if they cannot be built here. */
 export function makeTransposer(memory: object): Transposer | null {

@@ -1,6 +1,7 @@
 /**
- * A minimal WebAssembly binary writer: just enough to build the FFT kernel module of
- * wasm-lanes.ts at run time (no toolchain, nothing downloaded). Encoding follows the WebAssembly
+ * A minimal WebAssembly binary writer: just enough to build umbra's modules at run time (the FFT
+ * kernels of ../fourier/wasm-lanes.ts and wasm-transpose.ts, the FITS byte swap of
+ * ../fits/byteswap.ts; no toolchain, nothing downloaded). Encoding follows the WebAssembly
  * Core Specification 2.0 (W3C 2022), sec. 5 "Binary format", and the fixed-width SIMD opcodes of
  * that specification (sec. 5.4.8, prefix 0xFD).
  */

@@ -52,17 +52,25 @@ function blankNumber(blank: bigint | null, bitpix: number): number {
 export function decodePixels(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float64Array, place: ErrorPlace = {}): Float64Array {
   if (![8, 16, 32, 64, -32, -64].includes(s.bitpix)) throw new RangeError(`unsupported BITPIX ${s.bitpix}`);
   const result = out ?? new Float64Array(count);
-  const width = Math.abs(s.bitpix) / 8;
+  const blank = blankNumber(s.blank, s.bitpix);
+  eachNativeChunk(source, dataOffset, count, Math.abs(s.bitpix) / 8, place, (scratch, k, i0) => widenChunk(scratch, k, s, blank, result, i0));
+  return result;
+}
+
+/**
+ * Read `count` stored values of `width` bytes from byte `dataOffset` chunk by chunk into the swap
+ * scratch, byte-swapped to native order, and hand each chunk (its value count `k` and first index
+ * `i0`) to `use` while it is still in the CPU cache.
+ */
+function eachNativeChunk(source: ByteSource, dataOffset: number, count: number, width: number, place: ErrorPlace, use: (scratch: Uint8Array, k: number, i0: number) => void): void {
   const scratch = scratchBytes();
   const perChunk = SWAP_CHUNK_BYTES / width;
-  const blank = blankNumber(s.blank, s.bitpix);
   for (let i0 = 0; i0 < count; i0 += perChunk) {
     const k = Math.min(perChunk, count - i0);
     readExactly(source, dataOffset + i0 * width, scratch.subarray(0, k * width), place);
     if (width > 1) swapScratch(k * width, width as SwapWidth);
-    widenChunk(scratch, k, s, blank, result, i0);
+    use(scratch, k, i0);
   }
-  return result;
 }
 
 /** Convert `k` native-order stored values at the start of `scratch` into `out[i0 … i0+k)` as float64. */
@@ -147,19 +155,10 @@ export function decodePixelsFloat32(source: ByteSource, dataOffset: number, coun
     if (scale !== 1 || zero !== 0) for (let i = 0; i < count; i++) result[i] = zero + scale * (result[i] as number);
     return result;
   }
-  const width = s.bitpix / 8;
-  const scratch = scratchBytes();
-  const perChunk = SWAP_CHUNK_BYTES / width;
   const blank = blankNumber(s.blank, s.bitpix);
-  for (let i0 = 0; i0 < count; i0 += perChunk) {
-    const k = Math.min(perChunk, count - i0);
-    readExactly(source, dataOffset + i0 * width, scratch.subarray(0, k * width), place);
-    if (width === 2) {
-      swapScratch(2 * k, 2);
-      widenInts(new Int16Array(scratch.buffer, scratch.byteOffset, k), result, i0, scale, zero, blank);
-    } else {
-      widenInts(new Uint8Array(scratch.buffer, scratch.byteOffset, k), result, i0, scale, zero, blank);
-    }
-  }
+  eachNativeChunk(source, dataOffset, count, s.bitpix / 8, place, (scratch, k, i0) => {
+    const stored = s.bitpix === 16 ? new Int16Array(scratch.buffer, scratch.byteOffset, k) : new Uint8Array(scratch.buffer, scratch.byteOffset, k);
+    widenInts(stored, result, i0, scale, zero, blank);
+  });
   return result;
 }

@@ -6,25 +6,7 @@ import { describe, expect, it } from "vitest";
 import { makeComplexFft } from "../src/fourier/bluestein.js";
 import { nextSmooth, smoothRadices } from "../src/fourier/mixed-radix.js";
 import { createRng } from "@umbra/core";
-
-function naiveDft(x: Float64Array, dir: 1 | -1): Float64Array {
-  const n = x.length / 2;
-  const out = new Float64Array(2 * n);
-  for (let k = 0; k < n; k++) {
-    let sr = 0;
-    let si = 0;
-    for (let j = 0; j < n; j++) {
-      const theta = (dir * 2 * Math.PI * ((j * k) % n)) / n;
-      const c = Math.cos(theta);
-      const s = Math.sin(theta);
-      sr += (x[2 * j] as number) * c - (x[2 * j + 1] as number) * s;
-      si += (x[2 * j] as number) * s + (x[2 * j + 1] as number) * c;
-    }
-    out[2 * k] = sr;
-    out[2 * k + 1] = si;
-  }
-  return out;
-}
+import { naiveDft } from "./dft.js";
 
 describe("complex FFT kernels", () => {
   it("factor 5-smooth lengths into radices 4, 2, 3, 5 and reject the others", () => {

@@ -1,11 +1,12 @@
 /**
- * The WebAssembly SIMD kernel (wasm-lanes.ts, wasm-rows.ts, written by ../wasm/emit.ts): its LEB128
+ * The WebAssembly SIMD kernel (wasm-lanes.ts, wasm-rows.ts, written by src/wasm/emit.ts): its LEB128
  * encoder against the DWARF examples, the batched kernel against the scalar JS kernel and a direct
  * DFT, and the float64 2-D plan with and without wasm against numpy's rfft2 / irfft2
  * (fixtures/fourier/rfft2_reference.json, made by fixtures/fourier/make_reference.py).
  */
 import { describe, expect, it } from "vitest";
 import { createRng } from "@umbra/core";
+import { naiveDft } from "./dft.js";
 import { MixedRadixLanes } from "../src/fourier/mixed-radix.js";
 import { WasmLanes, laneModule } from "../src/fourier/wasm-lanes.js";
 import { sleb, uleb } from "../src/wasm/emit.js";
@@ -18,22 +19,6 @@ describe("LEB128 encoding", () => {
     expect([2, -2, 127, -127, 128, -128, 129, -129].map(sleb)).toEqual([[2], [0x7e], [0xff, 0], [0x81, 0x7f], [0x80, 1], [0x80, 0x7f], [0x81, 1], [0xff, 0x7e]]);
   });
 });
-
-function naiveDft(x: Float64Array, n: number, dir: 1 | -1): Float64Array {
-  const out = new Float64Array(2 * n);
-  for (let k = 0; k < n; k++) {
-    let sr = 0;
-    let si = 0;
-    for (let j = 0; j < n; j++) {
-      const theta = (dir * 2 * Math.PI * ((j * k) % n)) / n;
-      sr += (x[2 * j] as number) * Math.cos(theta) - (x[2 * j + 1] as number) * Math.sin(theta);
-      si += (x[2 * j] as number) * Math.sin(theta) + (x[2 * j + 1] as number) * Math.cos(theta);
-    }
-    out[2 * k] = sr;
-    out[2 * k + 1] = si;
-  }
-  return out;
-}
 
 describe("WebAssembly SIMD lane kernel", () => {
   it("is available on this Node (so the tests below exercise it)", () => {
@@ -64,7 +49,7 @@ describe("WebAssembly SIMD lane kernel", () => {
             out1[2 * i] = b[6 + i * 2 * (L + 2) + 2] as number;
             out1[2 * i + 1] = b[6 + i * 2 * (L + 2) + 3] as number;
           }
-          const expected = naiveDft(lane1, n, dir);
+          const expected = naiveDft(lane1, dir, n);
           expect(out1).toAllClose(expected, { rtol: 0, atol: 1e-12 * maxAbs(expected) });
         }
       }

@@ -16,7 +16,12 @@ import { BANDS3, makeField, tszNonRel, type FieldCluster } from "./photometry-he
 const sed = Float64Array.from(BANDS3.map((b) => tszNonRel(b.frequencyGHz)));
 const seds: SedProvider = { tsz: () => sed, ksz: () => Float64Array.from(BANDS3.map(() => -2.7255)) };
 const pool = createFitPool(2);
-afterAll(() => pool.close());
+// the same with this thread taking no tasks, so that the worker thread is sure to compute
+const workersOnly = createFitPool(2, { callerTakesTasks: false });
+afterAll(async () => {
+  await pool.close();
+  await workersOnly.close();
+});
 
 describe("fit pool", () => {
   const truth: FieldCluster[] = [];
@@ -45,11 +50,10 @@ describe("fit pool", () => {
   const opts = { profile: gaussianShape(1), seds, randomCount: 0, maxIterations: 2, scanSizesArcmin: [0.8, 1.2, 1.8], physics };
 
   it("gives measure results identical to one thread, masses included", async () => {
-    await pool.whenReady();
     const one = measureClusters(stack, cat, opts);
-    const before = pool.workerFits;
     const two = measureClusters(stack, cat, { ...opts, fitRunner: pool });
-    expect(pool.workerFits).toBeGreaterThan(before);
+    expect(measureClusters(stack, cat, { ...opts, fitRunner: workersOnly }).clusters).toEqual(one.clusters);
+    expect(workersOnly.workerTasks).toBeGreaterThan(0);
     expect(two.clusters).toEqual(one.clusters);
     expect(one.clusters.every((c) => c.m500Msun > 0)).toBe(true);
     expect(one.clusters[0]!.scan!.length).toBe(3);
@@ -59,11 +63,15 @@ describe("fit pool", () => {
     const sopts = { profile: gaussianShape(1), tszSed: sed, sizesArcmin: [0.8, 1.2, 1.8, 2.5], maxIterations: 1, snrMin: 5 };
     const one = searchClusters(stack, sopts);
     expect(one.candidates.length).toBeGreaterThan(5);
-    const before = pool.workerFits;
     const two = searchClusters(stack, { ...sopts, fitRunner: pool });
     expect(two.candidates).toEqual(one.candidates);
     expect(two.diagnostics).toEqual(one.diagnostics);
-    expect(pool.workerFits).toBeGreaterThan(before);
+    const before = workersOnly.workerTasks;
+    expect(searchClusters(stack, { ...sopts, fitRunner: workersOnly })).toEqual(one);
+    // every filter size of the two passes and at least the last pass's re-fits of the reported
+    // candidates at every size ran in the worker thread
+    const n = sopts.sizesArcmin.length;
+    expect(workersOnly.workerTasks - before).toBeGreaterThanOrEqual(2 * n + one.candidates.length * n);
     // depth rising across the field (ivar in 1/K², invented): the local-noise path of the size loop
     const deep = { ...stack, bands: stack.bands.map((b) => ({ ...b, ivar: Float64Array.from({ length: 128 * 128 }, (_, p) => 1e10 * (1 + (p % 128) / 64)) })) };
     const oneDeep = searchClusters(deep, sopts);

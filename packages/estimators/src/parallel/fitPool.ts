@@ -38,8 +38,8 @@ export interface FitRunner {
   ): { best: Float64Array; arg: Uint8Array; sigmas: Float64Array };
   /** Resolves when every worker thread has loaded (batches before that start with fewer threads). */
   whenReady(): Promise<void>;
-  /** Fits computed so far by worker threads (not this one): a diagnostic. */
-  readonly workerFits: number;
+  /** Fits and filter sizes computed so far by worker threads (not this one): a diagnostic. */
+  readonly workerTasks: number;
   /** Stop the worker threads (the runner then computes in this thread only). */
   close(): Promise<void>;
 }
@@ -63,7 +63,7 @@ export const serialFits: FitRunner = {
     return { best: a.best[0] as Float64Array, arg: a.arg[0] as Uint8Array, sigmas: a.sigmas };
   },
   whenReady: async () => undefined,
-  workerFits: 0,
+  workerTasks: 0,
   close: async () => undefined,
 };
 
@@ -93,7 +93,9 @@ function portableBank(bank: FilterBank): FitBank {
  * Each bank's arrays and SED combinations are posted to the workers once and kept for the next
  * batches on the same bank (the last few banks).
  */
-export function createFitPool(threads: number): FitRunner {
+export function createFitPool(threads: number, options: { callerTakesTasks?: boolean } = {}): FitRunner {
+  // false: only the worker threads compute (tests use it to see them work); results are the same
+  const callerTakes = options.callerTakesTasks ?? true;
   if (!Number.isInteger(threads) || threads < 1 || threads > 256) throw new UmbraError("BAD_OPTION", `fit threads ${threads}: use an integer from 1 to 256`, { field: "threads" });
   if (threads === 1) return serialFits;
   let workers: Worker[] = Array.from({ length: threads - 1 }, () => {
@@ -106,7 +108,7 @@ export function createFitPool(threads: number): FitRunner {
     w.once("error", reject);
   }))).then(() => undefined);
   ready.catch(() => undefined);
-  let workerFits = 0;
+  let workerTasks = 0;
   const ids = new WeakMap<FilterBank, number>();
   const live: { id: number; keys: Set<string> }[] = [];
   let nextId = 1;
@@ -159,9 +161,10 @@ export function createFitPool(threads: number): FitRunner {
         const id = share(bank, keys, sets);
         post({ kind: "batch", id, table: { ...table }, keys, arrays: a });
       }
-      runBatchTasks(bank, table, sets, a);
+      const posted = requests.length > 1 && workers.length > 0;
+      if (callerTakes || !posted) runBatchTasks(bank, table, sets, a);
       waitFor(a.control, requests.length, "fits");
-      workerFits += Atomics.load(a.control, 2);
+      workerTasks += Atomics.load(a.control, 2);
       return requests.map((r, i) => batchResult(a, i, r.seds.length));
     },
     bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
@@ -180,13 +183,14 @@ export function createFitPool(threads: number): FitRunner {
       const a = sizeArrays(sizesRad.length, plan.nx * plan.ny, workers.length + 1, true);
       const radians = Float64Array.from(sizesRad);
       workers.forEach((w, t) => w.postMessage({ kind: "sizes", id, key: filter.sedKey, table: { ...table }, sizesRad: radians, noiseId, arrays: a, slot: t + 1 } satisfies WorkerMessage));
-      runSizeTasks(bank, plan, table, sedFilterOf(sets[0] as SedSet), radians, noise, a, 0);
+      if (callerTakes) runSizeTasks(bank, plan, table, sedFilterOf(sets[0] as SedSet), radians, noise, a, 0);
       waitFor(a.control, sizesRad.length, "filter sizes");
+      workerTasks += Atomics.load(a.control, 2);
       return { ...mergeSizeSlots(a), sigmas: Float64Array.from(a.sigmas) };
     },
     whenReady: () => ready,
-    get workerFits() {
-      return workerFits;
+    get workerTasks() {
+      return workerTasks;
     },
     async close() {
       const ws = workers;

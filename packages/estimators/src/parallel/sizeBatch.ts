@@ -13,7 +13,7 @@ import type { ProfileTable } from "../mmf/profile.js";
 
 /** The arrays a size batch shares between threads. */
 export interface SizeArrays {
-  /** [next size to take, sizes finished]. */
+  /** [next size to take, sizes finished, sizes finished by worker threads (slots > 0)]. */
   readonly control: Int32Array;
   /** σ of each size's filtered map (units of the SED's amplitude). */
   readonly sigmas: Float64Array;
@@ -26,7 +26,7 @@ export interface SizeArrays {
 export function sizeArrays(nSizes: number, npix: number, slots: number, shared: boolean): SizeArrays {
   const buf = (bytes: number) => (shared ? new SharedArrayBuffer(bytes) : new ArrayBuffer(bytes));
   return {
-    control: new Int32Array(buf(8)),
+    control: new Int32Array(buf(12)),
     sigmas: new Float64Array(buf(8 * nSizes)),
     best: Array.from({ length: slots }, () => new Float64Array(buf(8 * npix)).fill(-Infinity)),
     arg: Array.from({ length: slots }, () => new Uint8Array(buf(npix))),
@@ -81,6 +81,7 @@ export function runSizeTasks(
       }
     }
     onMap?.(k, map);
+    if (slot > 0) Atomics.add(a.control, 2, 1);
     Atomics.add(a.control, 1, 1);
     Atomics.notify(a.control, 1);
     done++;

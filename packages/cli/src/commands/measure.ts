@@ -18,7 +18,6 @@ import {
   covarianceFromNoiseSimulations,
   joinTileMeasurements,
   loadBandStack,
-  type BandStack,
   type ClusterMeasurement,
   type MeasureOptions,
   type MeasureResult,
@@ -30,7 +29,7 @@ import { readClusterCatalog, writeCsvAtomic, writeTextAtomic, type CsvValue } fr
 import { VERSION } from "../version.js";
 import { parseShard, type Shard } from "../shard.js";
 import { collectTiles, readTileDirs, readTileFile, tileDirFor, type TileRun } from "../tiles/files.js";
-import { deprojectNames, deprojectSedsFor, measureStack, tilesOf, TILE_SEED_STRIDE, type CatalogueRow, type MeasureSettings, type TileOutput } from "../tiles/jobs.js";
+import { deprojectNames, measureStack, tilesOf, TILE_SEED_STRIDE, type CatalogueRow, type MeasureSettings, type TileOutput } from "../tiles/jobs.js";
 import { runTiles } from "../tiles/run.js";
 import { stageProgress } from "../progress.js";
 import { writeTiledSearchOutputs, type SearchMeta } from "./search.js";
@@ -82,12 +81,6 @@ export function sizesOption(name: string, text: string): number[] {
   const parts = text.split(",").map((s) => s.trim()).filter((s) => s.length > 0);
   if (parts.length === 0) throw new UmbraError("BAD_OPTION", `--${name} needs a comma-separated list of sizes in arcmin`, { field: name });
   return parts.map((p) => numberOption(name, p, (v) => v > 0, "sizes must be positive numbers of arcmin"));
-}
-
-/** SEDs of `--deproject cmb,dust` for the stack's bands (dust: modified blackbody at 353 GHz). */
-export function deprojectSeds(stack: BandStack, list: string | undefined, dustBeta: number, dustTempK: number): { seds: Float64Array[]; names: string[] } {
-  const names = deprojectNames(list);
-  return { seds: deprojectSedsFor(stack, names, dustBeta, dustTempK), names };
 }
 
 /** SHA-256 of a file, hex. */

@@ -8,7 +8,6 @@ import {
   a10ProfileShape,
   bandSed,
   clusterPhysics,
-  joinTileMeasurements,
   loadBandStack,
   measureCatalogByIlc,
   measureClusters,
@@ -165,5 +164,3 @@ export async function runTileJobFromManifest(job: TileJob): Promise<TileOutput> 
   if (cachedStack === null || cachedStack.path !== job.manifestPath) cachedStack = { path: job.manifestPath, stack: await loadBandStack(job.manifestPath) };
   return runTileJob(cachedStack.stack, job);
 }
-
-export { joinTileMeasurements };

@@ -12,6 +12,8 @@ import type { ComponentFit, FitBank } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
 import { batchArrays, batchResult, runBatchTasks, sedSets, sedFilterOf, type FitRequest, type SedSet } from "./fitBatch.js";
 import { mergeSizeSlots, runSizeTasks, sizeArrays } from "./sizeBatch.js";
+import { runPaintTasks, type PaintArrays } from "./paintBatch.js";
+import { paintClusters, type PaintedCluster } from "../photometry/model.js";
 import type { Rfft2Plan } from "@umbra/maps";
 import type { WhiteNoiseModel } from "../mmf/localNoise.js";
 import type { WorkerMessage } from "./fitWorker.js";
@@ -36,6 +38,8 @@ export interface FitRunner {
     noise: WhiteNoiseModel | null,
     onMap?: (k: number, snr: Float64Array) => void,
   ): { best: Float64Array; arg: Uint8Array; sigmas: Float64Array };
+  /** Copies of `spectra` with `sign` × every cluster's model added (see ../photometry/model.ts). */
+  paint(bank: FilterBank, table: ProfileTable, spectra: readonly Float64Array[], clusters: readonly PaintedCluster[], sign: number): Float64Array[];
   /** Resolves when every worker thread has loaded (batches before that start with fewer threads). */
   whenReady(): Promise<void>;
   /** Fits and filter sizes computed so far by worker threads (not this one): a diagnostic. */
@@ -62,6 +66,7 @@ export const serialFits: FitRunner = {
     runSizeTasks(bank, plan, table, sedFilterOf(set), Float64Array.from(sizesRad), noise, a, 0, onMap);
     return { best: a.best[0] as Float64Array, arg: a.arg[0] as Uint8Array, sigmas: a.sigmas };
   },
+  paint: (bank, table, spectra, clusters, sign) => paintClusters(bank, table, spectra, clusters, sign),
   whenReady: async () => undefined,
   workerTasks: 0,
   close: async () => undefined,
@@ -187,6 +192,23 @@ export function createFitPool(threads: number, options: { callerTakesTasks?: boo
       waitFor(a.control, sizesRad.length, "filter sizes");
       workerTasks += Atomics.load(a.control, 2);
       return { ...mergeSizeSlots(a), sigmas: Float64Array.from(a.sigmas) };
+    },
+    paint(bank, table, spectra, clusters, sign) {
+      if (workers.length === 0 || clusters.length === 0) return serialFits.paint(bank, table, spectra, clusters, sign);
+      const shared = (bytes: number) => new SharedArrayBuffer(bytes);
+      const out = spectra.map((sp) => {
+        const o = new Float64Array(shared(sp.byteLength));
+        o.set(sp);
+        return o;
+      });
+      const chunks = 4 * (workers.length + 1);
+      const a: PaintArrays = { control: new Int32Array(shared(12)), out, chunk: Math.ceil(bank.layout.modeCount / chunks), chunks };
+      const id = share(bank, [], []);
+      post({ kind: "paint", id, table: { ...table }, clusters, sign, arrays: a });
+      if (callerTakes) runPaintTasks(bank, table, clusters, sign, a);
+      waitFor(a.control, chunks, "paint chunks");
+      workerTasks += Atomics.load(a.control, 2);
+      return out;
     },
     whenReady: () => ready,
     get workerTasks() {

@@ -7,6 +7,8 @@ import { getRfft2Plan } from "@umbra/maps";
 import type { WhiteNoiseModel } from "../mmf/localNoise.js";
 import { runBatchTasks, sedFilterOf, type BatchArrays, type SedSet } from "./fitBatch.js";
 import { runSizeTasks, type SizeArrays } from "./sizeBatch.js";
+import { runPaintTasks, type PaintArrays } from "./paintBatch.js";
+import type { PaintedCluster } from "../photometry/model.js";
 
 /** What the pool posts: a bank's arrays (copied once), SED sets for it, batches (shared arrays), and drops. */
 export type WorkerMessage =
@@ -15,6 +17,7 @@ export type WorkerMessage =
   | { readonly kind: "batch"; readonly id: number; readonly table: ProfileTable; readonly keys: readonly string[]; readonly arrays: BatchArrays }
   | { readonly kind: "drop"; readonly id: number }
   | { readonly kind: "noise"; readonly id: number; readonly noise: WhiteNoiseModel }
+  | { readonly kind: "paint"; readonly id: number; readonly table: ProfileTable; readonly clusters: readonly PaintedCluster[]; readonly sign: number; readonly arrays: PaintArrays }
   | {
       readonly kind: "sizes";
       readonly id: number;
@@ -35,6 +38,10 @@ if (parentPort !== null && isUmbraWorker()) {
     if (m.kind === "bank") banks.set(m.id, { bank: m.bank, sets: new Map() });
     else if (m.kind === "drop") banks.delete(m.id);
     else if (m.kind === "noise") noise = { id: m.id, model: m.noise };
+    else if (m.kind === "paint") {
+      const b = banks.get(m.id);
+      if (b !== undefined) runPaintTasks(b.bank, m.table, m.clusters, m.sign, m.arrays, true);
+    }
     else if (m.kind === "sizes") {
       const b = banks.get(m.id);
       const set = b?.sets.get(m.key);

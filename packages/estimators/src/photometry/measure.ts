@@ -21,7 +21,7 @@ import type { BandCovariance } from "../noise/types.js";
 import type { BandStack } from "../stack/types.js";
 import { ELECTRON_REST_ENERGY_KEV, SPEED_OF_LIGHT_MPS } from "@umbra/spectra";
 import { FATAL_FLAGS, positionFlags, type ClusterFlag } from "./flags.js";
-import { paintClusters, type PaintedCluster } from "./model.js";
+import type { PaintedCluster } from "./model.js";
 import { massesFromY, type MassOutcome } from "./masses.js";
 import { prepareStack, type PreparedStack } from "./prepare.js";
 import { randomAllowedMask, randomPositionScatter, type RandomScatter } from "./randoms.js";
@@ -204,7 +204,7 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
   let lastChange = NaN;
   let cleaned: Float64Array[] = [];
   for (let it = 0; it < maxIt; it++) {
-    cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits), -1);
+    cleaned = runner.paint(bank, table, prep.spectra, painted(targets, fits), -1);
     if (opts.noiseCovariance === undefined) {
       cov = covFrom(cleaned);
       bank = bankFor(cov);
@@ -232,7 +232,7 @@ export function measureClusters(stack: BandStack, clusters: readonly CatalogueCl
     iterations = it + 1;
     if (lastChange < tol) break;
   }
-  if (maxIt > 0) cleaned = paintClusters(bank, table, prep.spectra, painted(targets, fits), -1);
+  if (maxIt > 0) cleaned = runner.paint(bank, table, prep.spectra, painted(targets, fits), -1);
   // bright point sources (radio: positive in bands below 200 GHz) near a cluster: flag it
   const sources: PointSource[] = [];
   const psSnr = opts.pointSourceSnr ?? 5;

@@ -5,7 +5,7 @@
  * 2023, MNRAS 522, 5123, sec. 3: iterative noise estimation).
  */
 import { shiftPhases } from "@umbra/maps";
-import type { FilterBank } from "../mmf/bank.js";
+import type { FitBank } from "../mmf/fit.js";
 import { profileAt, type ProfileTable } from "../mmf/profile.js";
 
 /** One cluster to paint: pixel position, scale and per-band amplitude (K_CMB at the centre before the beam). */
@@ -22,11 +22,21 @@ export interface PaintedCluster {
 }
 
 /** Add `sign` × every cluster's template to copies of `spectra`; returns the new spectra. */
-export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: readonly Float64Array[], clusters: readonly PaintedCluster[], sign = 1): Float64Array[] {
+export function paintClusters(bank: FitBank, table: ProfileTable, spectra: readonly Float64Array[], clusters: readonly PaintedCluster[], sign = 1): Float64Array[] {
   const out = spectra.map((s) => Float64Array.from(s));
+  paintModeRange(bank, table, out, clusters, sign, 0, bank.layout.modeCount);
+  return out;
+}
+
+/**
+ * Add `sign` × every cluster's template to `out` (band spectra) over the modes [m0, m1) only.
+ * Every mode receives the clusters in list order whatever the range, so painting the modes in
+ * pieces (on several threads) gives exactly the numbers of one call over all modes.
+ */
+export function paintModeRange(bank: FitBank, table: ProfileTable, out: readonly Float64Array[], clusters: readonly PaintedCluster[], sign: number, m0: number, m1: number): void {
   const nb = bank.nBands;
   const { nx, ny } = bank.geometry;
-  const { kxIndex, kyIndex, modeCount } = bank.layout;
+  const { kxIndex, kyIndex } = bank.layout;
   const { index, frac } = bank.grid;
   const bn = bank.beamNodes;
   const ex = new Float64Array(2 * nx);
@@ -34,14 +44,14 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
   // clusters with a shared SED: accumulate y-model spectra per SED, spread over bands at the end
   const groups = new Map<Float64Array, Float64Array>();
   for (const c of clusters) {
-    const acc = c.shared !== undefined ? (groups.get(c.shared.sed) ?? (groups.size < 8 ? new Float64Array(2 * modeCount) : null)) : null;
+    const acc = c.shared !== undefined ? (groups.get(c.shared.sed) ?? (groups.size < 8 ? new Float64Array(2 * (m1 - m0)) : null)) : null;
     if (acc !== null && c.shared !== undefined) groups.set(c.shared.sed, acc);
     shiftPhases(nx, c.px, -1, "half", ex);
     shiftPhases(ny, c.py, -1, "full", ey);
     const th2 = (sign * c.thetaRad * c.thetaRad) / bank.pixelSr;
     if (acc !== null && c.shared !== undefined) {
       const a = th2 * c.shared.amplitude;
-      for (let m = 0; m < modeCount; m++) {
+      for (let m = m0; m < m1; m++) {
         const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * a;
         if (g === 0) continue;
         const kx = kxIndex[m] as number;
@@ -51,12 +61,13 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
         const xi = ex[2 * kx + 1] as number;
         const yr = ey[2 * ky] as number;
         const yi = ey[2 * ky + 1] as number;
-        acc[2 * m] += (xr * yr - xi * yi) * g;
-        acc[2 * m + 1] += (xr * yi + xi * yr) * g;
+        const q = 2 * (m - m0);
+        acc[q] += (xr * yr - xi * yi) * g;
+        acc[q + 1] += (xr * yi + xi * yr) * g;
       }
       continue;
     }
-    for (let m = 0; m < modeCount; m++) {
+    for (let m = m0; m < m1; m++) {
       const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * th2;
       if (g === 0) continue;
       const kx = kxIndex[m] as number;
@@ -79,11 +90,11 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
     }
   }
   for (const [sed, acc] of groups) {
-    for (let m = 0; m < modeCount; m++) {
+    for (let m = m0; m < m1; m++) {
       const n0 = (index[m] as number) * nb;
       const t = frac[m] as number;
-      const ar = acc[2 * m] as number;
-      const ai = acc[2 * m + 1] as number;
+      const ar = acc[2 * (m - m0)] as number;
+      const ai = acc[2 * (m - m0) + 1] as number;
       for (let i = 0; i < nb; i++) {
         const b = ((bn[n0 + i] as number) * (1 - t) + (bn[n0 + nb + i] as number) * t) * (sed[i] as number);
         const s = out[i] as Float64Array;
@@ -92,5 +103,4 @@ export function paintClusters(bank: FilterBank, table: ProfileTable, spectra: re
       }
     }
   }
-  return out;
 }

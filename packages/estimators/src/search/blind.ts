@@ -14,7 +14,7 @@ import { tabulateProfile, type ProfileShape, type ProfileTable } from "../mmf/pr
 import { localSigmaFactor, whiteNoiseModel, whiteNoiseShares, type WhiteNoiseModel } from "../mmf/localNoise.js";
 import { deconvolveBeams, estimateBandCovariance, type CovarianceOptions } from "../noise/estimate.js";
 import type { BandCovariance } from "../noise/types.js";
-import { paintClusters, type PaintedCluster } from "../photometry/model.js";
+import type { PaintedCluster } from "../photometry/model.js";
 import { prepareStack } from "../photometry/prepare.js";
 import type { BandStack } from "../stack/types.js";
 import { debiasedSnr } from "./debias.js";
@@ -195,7 +195,7 @@ export function searchClusters(stack: BandStack, opts: SearchOptions): SearchRes
       thetaRad: c.theta500Arcmin * RAD_PER_ARCMIN,
       bandAmplitudes: opts.tszSed.map((a) => a * c.y0),
     }));
-    cov = covFrom(paintClusters(bank, table, prep.spectra, model, -1));
+    cov = covFrom(runner.paint(bank, table, prep.spectra, model, -1));
     bank = bankFor(cov);
   }
   const prefix = opts.idPrefix ?? "cand";

@@ -27,7 +27,8 @@ import {
 } from "@umbra/estimators";
 import { readClusterCatalog, writeCsvAtomic, writeTextAtomic, type CsvValue } from "@umbra/maps";
 import { VERSION } from "../version.js";
-import { parseShard, type Shard } from "../shard.js";
+import type { Shard } from "../shard.js";
+import { addTileOptions, parseTileOptions, type TileCliOptions } from "../tiles/options.js";
 import { collectTiles, readTileDirs, readTileFile, tileDirFor, type TileRun } from "../tiles/files.js";
 import { deprojectNames, measureStack, tilesOf, TILE_SEED_STRIDE, type CatalogueRow, type MeasureSettings, type TileOutput } from "../tiles/jobs.js";
 import { runTiles } from "../tiles/run.js";
@@ -35,7 +36,7 @@ import { stageProgress } from "../progress.js";
 import { writeTiledSearchOutputs, type SearchMeta } from "./search.js";
 
 /** Options as commander hands them over. */
-interface MeasureCliOptions {
+interface MeasureCliOptions extends TileCliOptions {
   bands: string;
   catalog: string;
   out: string;
@@ -54,11 +55,6 @@ interface MeasureCliOptions {
   cosmology: string;
   relation: string;
   noiseSims?: string;
-  tile?: string;
-  tileMargin: string;
-  shard?: string;
-  resume?: boolean;
-  workers: string;
 }
 
 /** The required leading CSV columns (the pipeline contract). */
@@ -191,12 +187,7 @@ export async function writeTiledMeasureOutputs(out: string, json: boolean, meta:
 
 async function runMeasure(o: MeasureCliOptions): Promise<void> {
   const s = measureSettings(o);
-  const tiling = tilingOption(o);
-  const shard = o.shard === undefined ? null : parseShard(o.shard);
-  const workers = workersOption(o.workers);
-  if (tiling === null && (shard !== null || o.resume === true)) {
-    throw new UmbraError("BAD_OPTION", "--shard and --resume split a map into sky tiles: give --tile DEG too", { field: "tile" });
-  }
+  const { tiling, shard, workers, resume } = parseTileOptions(o);
   progress(`umbra measure: reading ${o.bands}`);
   const stack = await loadBandStack(o.bands);
   for (const w of stack.warnings) process.stderr.write(`umbra: warning: ${w}\n`);
@@ -238,7 +229,7 @@ async function runMeasure(o: MeasureCliOptions): Promise<void> {
   const run: TileRun = { command: "measure", runKey, tileCount: tiles.length, meta: meta as unknown as Record<string, unknown> };
   const dir = tileDirFor(o.out);
   progress(`umbra measure: ${rows.length} clusters, ${stack.bands.length} bands ${stack.nx}×${stack.ny}, ${tiles.length} tiles${shard === null ? "" : ` (shard ${shard.index}/${shard.count})`}`);
-  const done = await runTiles(stack, (t) => ({ kind: "measure", manifestPath: resolve(o.bands), tiling, tile: t, settings: s, rows }), { dir, run, shard, resume: o.resume === true, workers, label: "measure tiles" });
+  const done = await runTiles(stack, (t) => ({ kind: "measure", manifestPath: resolve(o.bands), tiling, tile: t, settings: s, rows }), { dir, run, shard, resume, workers, label: "measure tiles" });
   await finishTiles(o.out, o.json === true, dir, shard, done, run);
 }
 
@@ -275,26 +266,9 @@ export function runKeyOf(command: string, what: unknown): string {
   return createHash("sha256").update(JSON.stringify({ command, version: VERSION, what })).digest("hex");
 }
 
-/** `--tile DEG` and `--tile-margin ARCMIN` (null without --tile). */
-export function tilingOption(o: { tile?: string; tileMargin: string; apodisation: string }): TilingOptions | null {
-  if (o.tile === undefined) return null;
-  const tileDeg = numberOption("tile", o.tile, (v) => v > 0, "must be a positive side in degrees");
-  const marginArcmin = numberOption("tile-margin", o.tileMargin, (v) => v >= 0, "must be ≥ 0 arcmin");
-  const apod = Number(o.apodisation);
-  if (Number.isFinite(apod) && marginArcmin < apod) {
-    throw new UmbraError("BAD_OPTION", `--tile-margin ${marginArcmin} arcmin is narrower than the ${apod}-arcmin edge taper: core clusters would sit in the taper`, { field: "tile-margin", value: o.tileMargin });
-  }
-  return { tileDeg, marginArcmin };
-}
-
-/** `--workers N` (0 = in this thread). */
-export function workersOption(text: string): number {
-  return numberOption("workers", text, (v) => Number.isInteger(v) && v >= 0 && v <= 256, "must be an integer from 0 (this thread) to 256");
-}
-
 /** Register `umbra measure`. */
 export function register(program: Command): void {
-  program
+  const cmd = program
     .command("measure")
     .description("Forced photometry of catalogued clusters with the multi-frequency matched filter: y0, Y5R500, errors, S/N.")
     .requiredOption("--bands <manifest.json>", "band manifest (JSON; paths inside are relative to it)")
@@ -314,11 +288,6 @@ export function register(program: Command): void {
     .option("--iterations <n>", "cluster-cleaning iterations of the noise covariance", "4")
     .option("--cosmology <name>", "cosmology preset for theta500(M, z), D_A and masses", "cmb2018")
     .option("--relation <name>", "Y–M relation for M500: a10 or planck2014", "a10")
-    .option("--noise-sims <manifests>", "comma-separated band manifests of noise-only simulations: their mean covariance replaces the data estimate")
-    .option("--tile <deg>", "measure the map in sky tiles of this core side in degrees, each with its own covariance (default: the whole map at once)")
-    .option("--tile-margin <arcmin>", "margin analysed around each tile's core, in arcmin (≥ --apodisation)", "30")
-    .option("--shard <i/N>", "with --tile: compute only shard i of N (contiguous blocks of tiles) into RESULTS.tiles/; join with umbra merge")
-    .option("--resume", "with --tile: skip tiles whose file in RESULTS.tiles/ is already there from the same run")
-    .option("--workers <n>", "threads that compute: with --tile, tiles in parallel; otherwise the cluster fits within the map (0 or 1 = this thread only; results are the same)", "0")
-    .action(async (o: MeasureCliOptions) => runMeasure(o));
+    .option("--noise-sims <manifests>", "comma-separated band manifests of noise-only simulations: their mean covariance replaces the data estimate");
+  addTileOptions(cmd, "measure", "RESULTS", "the cluster fits within the map").action(async (o: MeasureCliOptions) => runMeasure(o));
 }

@@ -10,16 +10,16 @@ import type { Command } from "commander";
 import { createFitPool, joinTileSearches, loadBandStack, searchClusters, type Candidate, type SkyTile, type TileSearch } from "@umbra/estimators";
 import { UmbraError } from "@umbra/core";
 import { resolve } from "node:path";
-import { parseShard } from "../shard.js";
+import { addTileOptions, parseTileOptions, type TileCliOptions } from "../tiles/options.js";
 import { tileDirFor, type TileRun } from "../tiles/files.js";
 import { deprojectNames, searchOptionsFor, tilesOf, type SearchSettings, type TileOutput } from "../tiles/jobs.js";
 import { runTiles } from "../tiles/run.js";
 import { stageProgress } from "../progress.js";
 import { writeCsvAtomic, writeSkyMapFits, writeTextAtomic, type CsvValue } from "@umbra/maps";
 import { VERSION } from "../version.js";
-import { finishTiles, jsonPathFor, jsonSafe, numberOption, progress, runKeyOf, sizesOption, tilingOption, workersOption } from "./measure.js";
+import { finishTiles, jsonPathFor, jsonSafe, numberOption, progress, runKeyOf, sizesOption } from "./measure.js";
 
-interface SearchCliOptions {
+interface SearchCliOptions extends TileCliOptions {
   bands: string;
   out: string;
   snrMin: string;
@@ -31,11 +31,6 @@ interface SearchCliOptions {
   apodisation: string;
   iterations: string;
   json?: boolean;
-  tile?: string;
-  tileMargin: string;
-  shard?: string;
-  resume?: boolean;
-  workers: string;
 }
 
 /** CSV columns of the candidate list. */
@@ -99,12 +94,7 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
     apodisationArcmin: numberOption("apodisation", o.apodisation, (v) => v >= 0, "must be ≥ 0 arcmin"),
     iterations: numberOption("iterations", o.iterations, (v) => Number.isInteger(v) && v >= 0, "must be an integer ≥ 0"),
   };
-  const tiling = tilingOption(o);
-  const shard = o.shard === undefined ? null : parseShard(o.shard);
-  const workers = workersOption(o.workers);
-  if (tiling === null && (shard !== null || o.resume === true)) {
-    throw new UmbraError("BAD_OPTION", "--shard and --resume split a map into sky tiles: give --tile DEG too", { field: "tile" });
-  }
+  const { tiling, shard, workers, resume } = parseTileOptions(o);
   if (tiling !== null && o.snrMaps !== undefined) throw new UmbraError("BAD_OPTION", "--snr-maps is not supported with --tile (tiles overlap)", { field: "snr-maps" });
   progress(`umbra search: reading ${o.bands}`);
   const stack = await loadBandStack(o.bands);
@@ -122,7 +112,7 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
     const run: TileRun = { command: "search", runKey, tileCount: tiles.length, meta: meta as unknown as Record<string, unknown> };
     const dir = tileDirFor(o.out);
     progress(`umbra search: ${stack.bands.length} bands ${stack.nx}×${stack.ny}, ${tiles.length} tiles${shard === null ? "" : ` (shard ${shard.index}/${shard.count})`}`);
-    const done = await runTiles(stack, (t) => ({ kind: "search", manifestPath: resolve(o.bands), tiling, tile: t, settings: s }), { dir, run, shard, resume: o.resume === true, workers, label: "search tiles" });
+    const done = await runTiles(stack, (t) => ({ kind: "search", manifestPath: resolve(o.bands), tiling, tile: t, settings: s }), { dir, run, shard, resume, workers, label: "search tiles" });
     await finishTiles(o.out, o.json === true, dir, shard, done, run);
     return;
   }
@@ -158,7 +148,7 @@ async function runSearch(o: SearchCliOptions): Promise<void> {
 
 /** Register `umbra search`. */
 export function register(program: Command): void {
-  program
+  const cmd = program
     .command("search")
     .description("Blind cluster search with the multi-frequency matched filter over a grid of sizes.")
     .requiredOption("--bands <manifest.json>", "band manifest (JSON; paths inside are relative to it)")
@@ -171,11 +161,6 @@ export function register(program: Command): void {
     .option("--dust-temp <K>", "dust SED temperature in K for --deproject dust", "20")
     .option("--apodisation <arcmin>", "width of the edge taper in arcmin", "8")
     .option("--iterations <n>", "cleaning iterations: detections subtracted, covariance re-estimated", "2")
-    .option("--json", "also write <out>.json with diagnostics and provenance")
-    .option("--tile <deg>", "search the map in sky tiles of this core side in degrees, each with its own covariance (default: the whole map at once)")
-    .option("--tile-margin <arcmin>", "margin analysed around each tile's core, in arcmin (≥ --apodisation)", "30")
-    .option("--shard <i/N>", "with --tile: compute only shard i of N (contiguous blocks of tiles) into CANDIDATES.tiles/; join with umbra merge")
-    .option("--resume", "with --tile: skip tiles whose file in CANDIDATES.tiles/ is already there from the same run")
-    .option("--workers <n>", "threads that compute: with --tile, tiles in parallel; otherwise the candidate fits at every size (0 or 1 = this thread only; results are the same)", "0")
-    .action(async (o: SearchCliOptions) => runSearch(o));
+    .option("--json", "also write <out>.json with diagnostics and provenance");
+  addTileOptions(cmd, "search", "CANDIDATES", "the filter sizes and candidate fits within the map").action(async (o: SearchCliOptions) => runSearch(o));
 }

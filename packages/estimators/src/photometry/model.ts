@@ -48,27 +48,10 @@ export function paintModeRange(bank: FitBank, table: ProfileTable, out: readonly
     if (acc !== null && c.shared !== undefined) groups.set(c.shared.sed, acc);
     shiftPhases(nx, c.px, -1, "half", ex);
     shiftPhases(ny, c.py, -1, "full", ey);
-    const th2 = (sign * c.thetaRad * c.thetaRad) / bank.pixelSr;
-    if (acc !== null && c.shared !== undefined) {
-      const a = th2 * c.shared.amplitude;
-      for (let m = m0; m < m1; m++) {
-        const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * a;
-        if (g === 0) continue;
-        const kx = kxIndex[m] as number;
-        let ky = kyIndex[m] as number;
-        if (ky < 0) ky += ny;
-        const xr = ex[2 * kx] as number;
-        const xi = ex[2 * kx + 1] as number;
-        const yr = ey[2 * ky] as number;
-        const yi = ey[2 * ky + 1] as number;
-        const q = 2 * (m - m0);
-        acc[q] += (xr * yr - xi * yi) * g;
-        acc[q + 1] += (xr * yi + xi * yr) * g;
-      }
-      continue;
-    }
+    // a shared-SED cluster goes into its SED's accumulator; the others straight into every band
+    const scale = ((sign * c.thetaRad * c.thetaRad) / bank.pixelSr) * (acc !== null && c.shared !== undefined ? c.shared.amplitude : 1);
     for (let m = m0; m < m1; m++) {
-      const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * th2;
+      const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * scale;
       if (g === 0) continue;
       const kx = kxIndex[m] as number;
       let ky = kyIndex[m] as number;
@@ -79,6 +62,11 @@ export function paintModeRange(bank: FitBank, table: ProfileTable, out: readonly
       const yi = ey[2 * ky + 1] as number;
       const pr = (xr * yr - xi * yi) * g;
       const pi = (xr * yi + xi * yr) * g;
+      if (acc !== null) {
+        acc[2 * (m - m0)] += pr;
+        acc[2 * (m - m0) + 1] += pi;
+        continue;
+      }
       const n0 = (index[m] as number) * nb;
       const t = frac[m] as number;
       for (let i = 0; i < nb; i++) {

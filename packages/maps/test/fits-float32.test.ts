@@ -6,7 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { isUmbraError } from "@umbra/core";
 import { formatCard, parseFitsImage, readFitsImage, readFitsLayout, type AnyReadOptions } from "../src/fits/index.js";
-import { simdSwapAvailable, swapInPlace, SWAP_CHUNK_BYTES, type SwapWidth } from "../src/fits/byteswap.js";
+import { scratchBytes, scratchFor, simdSwapAvailable, swapScratch, SWAP_CHUNK_BYTES, type SwapWidth } from "../src/fits/byteswap.js";
 import { EXPECTED, FIXTURES, expectedPixels, fixtureBytes } from "./fits-support.js";
 
 /** Bit patterns of a float32 array (to compare bit for bit, NaN payloads included). */
@@ -184,14 +184,15 @@ describe("float32 reads of scaled and integer images", () => {
 });
 
 describe("images larger than one swap chunk", () => {
-  // 301 × 299 pixels: 89 999 values, not a multiple of 4 (the SIMD vector) nor of a chunk's values
-  const nx = 301;
-  const ny = 299;
+  // 1451 × 1453 pixels: 2 108 303 values, more than one chunk even at one byte each, and not a
+  // multiple of 16 (the SIMD loop's values per iteration) nor of a chunk's values
+  const nx = 1451;
+  const ny = 1453;
   const n = nx * ny;
   const values = Float64Array.from({ length: n }, (_, i) => (i % 97 === 0 ? NaN : Math.sin(i * 0.37) * 10 ** ((i % 9) - 4)));
 
   it("float32 and float64 stored images read back exactly in both output types", async () => {
-    expect(4 * n).toBeGreaterThan(SWAP_CHUNK_BYTES);
+    expect(n).toBeGreaterThan(SWAP_CHUNK_BYTES);
     const f32 = Float32Array.from(values);
     const file32 = fitsFile(-32, nx, ny, bigEndian(f32, "f32"));
     const a = await parseFitsImage(file32, "big32.fits", { dtype: "float32" });
@@ -232,17 +233,40 @@ describe("byte swap", () => {
     expect(simdSwapAvailable()).toBe(true);
   });
 
-  it("swapInPlace reverses every 2-, 4- and 8-byte group exactly as Node's Buffer.swap16/32/64 do", () => {
-    for (const width of [2, 4, 8] as SwapWidth[]) {
-      for (const len of [0, 8, 16, 24, 1000, SWAP_CHUNK_BYTES, SWAP_CHUNK_BYTES + 8 * 37]) {
-        const bytes = Uint8Array.from({ length: len }, (_, i) => (i * 2654435761) >>> 24);
-        const ours = bytes.slice();
-        swapInPlace(ours, width);
-        const node = Buffer.from(bytes);
-        if (width === 2) node.swap16();
-        else if (width === 4) node.swap32();
-        else node.swap64();
-        expect(Buffer.from(ours).equals(node)).toBe(true);
+  it("swapScratch reverses every 2-, 4- and 8-byte group exactly as Node's Buffer.swap16/32/64 do, wherever the chunk sits", () => {
+    // common practice, no source: Node's Buffer.swapNN is the reference byte reversal
+    for (const chunk of [scratchBytes(), scratchFor(0), scratchFor(2880), scratchFor(5760)]) {
+      for (const width of [2, 4, 8] as SwapWidth[]) {
+        for (const len of [0, 8, 16, 24, 64, 72, 1000, SWAP_CHUNK_BYTES - 8, SWAP_CHUNK_BYTES]) {
+          const bytes = Uint8Array.from({ length: len }, (_, i) => ((i + len) * 2654435761) >>> 24);
+          chunk.set(bytes);
+          const after = chunk.slice(len, len + 64); // bytes past the end must not move
+          swapScratch(chunk, len, width);
+          const node = Buffer.from(bytes);
+          if (width === 2) node.swap16();
+          else if (width === 4) node.swap32();
+          else node.swap64();
+          expect(Buffer.from(chunk.subarray(0, len)).equals(node)).toBe(true);
+          expect(Buffer.from(chunk.slice(len, len + 64)).equals(Buffer.from(after))).toBe(true);
+        }
+      }
+    }
+  });
+
+  it("scratchFor places each chunk at least 1008 bytes (mod 4 KiB) from the file offset and from byte 16, 64-byte aligned", () => {
+    // the 4K-aliasing rule of byteswap.ts (measured in docs/fits-reader.md); FITS data start at multiples of 2880 (FITS 4.0 §3.1)
+    const base = scratchBytes().byteOffset;
+    const dist = (d: number): number => {
+      const r = ((d % 4096) + 4096) % 4096;
+      return Math.min(r, 4096 - r);
+    };
+    for (let k = 0; k < 64; k++) {
+      for (const offset of [2880 * k, 2880 * k + 8, 2880 * k + 1000]) {
+        const at = scratchFor(offset).byteOffset - base;
+        expect(at % 64).toBe(0);
+        expect(dist(at - offset)).toBeGreaterThanOrEqual(1008);
+        expect(dist(at - 16)).toBeGreaterThanOrEqual(1008);
+        expect(scratchFor(offset).length).toBe(SWAP_CHUNK_BYTES);
       }
     }
   });

@@ -4,12 +4,13 @@
  * BSCALE · stored (§4.4.2.5, eq. 3), and BLANK → NaN for integer arrays (§4.4.2.5, §5.2.2).
  *
  * Speed (measurements in docs/fits-reader.md): the file is read in chunks of {@link SWAP_CHUNK_BYTES}
- * so each chunk is byte-swapped (WebAssembly SIMD, ./byteswap.ts) and converted while it is still in
- * the CPU cache; the float64 path reads each chunk into the swap scratch and widens from there into
- * the output, the float32 path reads straight into the output's own bytes.
+ * into a scratch memory placed to avoid 4K aliasing ({@link scratchFor}), byte-swapped there
+ * (WebAssembly SIMD, ./byteswap.ts) and copied or converted into the output while still in the CPU
+ * cache, so the output is written once. Fresh outputs are allocated without a zero fill (every value
+ * is written before the array is returned).
  */
 import { UmbraError, type ErrorPlace } from "@umbra/core";
-import { scratchBytes, swapInPlace, swapScratch, SWAP_CHUNK_BYTES, type SwapWidth } from "./byteswap.js";
+import { scratchFor, swapScratch, SWAP_CHUNK_BYTES, type SwapWidth } from "./byteswap.js";
 import type { ByteSource } from "./source.js";
 
 /** How stored values become physical ones. */
@@ -51,7 +52,7 @@ function blankNumber(blank: bigint | null, bitpix: number): number {
  */
 export function decodePixels(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float64Array, place: ErrorPlace = {}): Float64Array {
   if (![8, 16, 32, 64, -32, -64].includes(s.bitpix)) throw new RangeError(`unsupported BITPIX ${s.bitpix}`);
-  const result = out ?? new Float64Array(count);
+  const result = out ?? new Float64Array(uninitialised(8 * count));
   const blank = blankNumber(s.blank, s.bitpix);
   eachNativeChunk(source, dataOffset, count, Math.abs(s.bitpix) / 8, place, (scratch, k, i0) => widenChunk(scratch, k, s, blank, result, i0));
   return result;
@@ -63,14 +64,24 @@ export function decodePixels(source: ByteSource, dataOffset: number, count: numb
  * `i0`) to `use` while it is still in the CPU cache.
  */
 function eachNativeChunk(source: ByteSource, dataOffset: number, count: number, width: number, place: ErrorPlace, use: (scratch: Uint8Array, k: number, i0: number) => void): void {
-  const scratch = scratchBytes();
+  const scratch = scratchFor(dataOffset); // chunks start at dataOffset + a multiple of 4 KiB: one placement serves all
   const perChunk = SWAP_CHUNK_BYTES / width;
   for (let i0 = 0; i0 < count; i0 += perChunk) {
     const k = Math.min(perChunk, count - i0);
     readExactly(source, dataOffset + i0 * width, scratch.subarray(0, k * width), place);
-    if (width > 1) swapScratch(k * width, width as SwapWidth);
+    if (width > 1) swapScratch(scratch, k * width, width as SwapWidth);
     use(scratch, k, i0);
   }
+}
+
+/**
+ * An ArrayBuffer of `bytes` bytes without the zero fill of `new Float64Array(n)`: every value is
+ * written before the reader returns the array (an error drops it unseen). With the fill, a recycled
+ * heap block is zeroed and then overwritten.
+ */
+function uninitialised(bytes: number): ArrayBuffer {
+  const b = Buffer.allocUnsafeSlow(bytes);
+  return b.buffer as ArrayBuffer;
 }
 
 /** Convert `k` native-order stored values at the start of `scratch` into `out[i0 … i0+k)` as float64. */
@@ -142,17 +153,16 @@ function widenInt64(u: Uint32Array, h: Int32Array, k: number, out: Float64Array,
  */
 export function decodePixelsFloat32(source: ByteSource, dataOffset: number, count: number, s: PixelScaling, out?: Float32Array, place: ErrorPlace = {}): Float32Array {
   if (!FLOAT32_BITPIX.includes(s.bitpix)) throw new RangeError(`BITPIX ${s.bitpix} does not fit float32 exactly`);
-  const result = out ?? new Float32Array(count);
+  const result = out ?? new Float32Array(uninitialised(4 * count));
   const scale = s.bscale;
   const zero = s.bzero;
   if (s.bitpix === -32) {
-    const bytes = new Uint8Array(result.buffer, result.byteOffset, 4 * count);
-    for (let o = 0; o < bytes.length; o += SWAP_CHUNK_BYTES) {
-      const part = bytes.subarray(o, Math.min(bytes.length, o + SWAP_CHUNK_BYTES));
-      readExactly(source, dataOffset + o, part, place);
-      swapInPlace(part, 4);
-    }
-    if (scale !== 1 || zero !== 0) for (let i = 0; i < count; i++) result[i] = zero + scale * (result[i] as number);
+    const identity = scale === 1 && zero === 0;
+    eachNativeChunk(source, dataOffset, count, 4, place, (scratch, k, i0) => {
+      const v = new Float32Array(scratch.buffer, scratch.byteOffset, k);
+      if (identity) result.set(v, i0);
+      else for (let i = 0; i < k; i++) result[i0 + i] = zero + scale * (v[i] as number);
+    });
     return result;
   }
   const blank = blankNumber(s.blank, s.bitpix);

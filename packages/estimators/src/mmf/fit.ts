@@ -12,6 +12,13 @@
  * Ψ = σ² P⁻¹F, σ⁻² = Σ Fᵀ P⁻¹ F, here written in the unnormalised-FFT convention of
  * packages/maps/src/fourier/types.ts (derivation in docs/matched-filter.md).
  * Sums run over the full Fourier plane through the stored half plane and its Hermitian weights.
+ *
+ * Rings: τ̃, B and the node tables depend on a mode only through its multipole ℓ, so both sums are
+ * taken in two steps — first, per ring of modes with the same ℓ (bitwise the same number), the
+ * position's phase-weighted data D_u = Σ_{m∈u} h_m Re[W_m e^{+2πi k·x0}] ({@link positionRings}),
+ * then b = Σ_u τ̃(ℓ_u θ) D_u and Φ = Σ_u τ̃² Q_u ({@link fitFromRings}). On a square grid of square
+ * pixels there are ~5.6× fewer rings than modes, so a fit at a new size of a position whose rings are
+ * known costs a small fraction of a pass over the modes (size scans, mass solutions, search re-fits).
  */
 import { Matrix, inverse } from "ml-matrix";
 import { UmbraError } from "@umbra/core";
@@ -27,10 +34,12 @@ export interface ComponentFit {
   readonly covariance: Float64Array;
 }
 
-/** Reusable scratch for repeated fits on one bank (phases along x and y). */
+/** Reusable scratch for repeated fits on one bank (phases along x and y, one position's rings). */
 export interface FitScratch {
   readonly ex: Float64Array;
   readonly ey: Float64Array;
+  /** Rings of the last position (see {@link positionRings}); grown on demand. */
+  rings?: Float64Array;
 }
 
 /**
@@ -73,9 +82,201 @@ export function sedNodeTable(bank: Pick<FilterBank, "nBands" | "grid" | "qNodes"
   return out;
 }
 
+/** The rings of a bank's modes (see the module doc): modes grouped by their multipole. */
+export interface EllRings {
+  /** Ring of each stored mode. */
+  readonly ringOf: Int32Array;
+  /** Multipole of each ring, increasing. */
+  readonly ell: Float64Array;
+  /** Σ of the Hermitian weights of each ring's modes. */
+  readonly weight: Float64Array;
+}
+
+const ringCache = new WeakMap<Float64Array, EllRings>();
+
+/** The rings of `bank`'s modes: modes with bitwise-equal ℓ share a ring, rings in increasing ℓ (cached per ells array). */
+export function ellRings(bank: Pick<FitBank, "ells" | "layout">): EllRings {
+  const ells = bank.ells;
+  let r = ringCache.get(ells);
+  if (r === undefined) {
+    const byEll = new Map<number, number>();
+    const first = new Int32Array(ells.length);
+    for (let m = 0; m < ells.length; m++) {
+      const l = ells[m] as number;
+      let u = byEll.get(l);
+      if (u === undefined) {
+        u = byEll.size;
+        byEll.set(l, u);
+      }
+      first[m] = u;
+    }
+    // renumber in increasing ℓ: neighbouring modes then fall in neighbouring rings, and the sums over
+    // rings read the profile table in order
+    const ell = Float64Array.from(byEll.keys()).sort();
+    const rank = new Int32Array(ell.length);
+    ell.forEach((l, k) => {
+      rank[byEll.get(l) as number] = k;
+    });
+    const ringOf = new Int32Array(ells.length);
+    const weight = new Float64Array(ell.length);
+    const hw = bank.layout.hermitianWeight;
+    for (let m = 0; m < ells.length; m++) {
+      const u = rank[first[m] as number] as number;
+      ringOf[m] = u;
+      weight[u] += hw[m] as number;
+    }
+    r = { ringOf, ell, weight };
+    ringCache.set(ells, r);
+  }
+  return r;
+}
+
+const fisherRingCache = new WeakMap<Float64Array, Float64Array>();
+
+/**
+ * Per ring u, the Fisher weights Q_u,cc' = (Σ_{m∈u} h_m) q_cc'(ℓ_u), q interpolated from the node
+ * table `nodeTable` of nc components ({@link sedNodeTable}); nRings × nc × nc, cached per table.
+ */
+function fisherRings(bank: FitBank, nodeTable: Float64Array, nc: number): Float64Array {
+  let q = fisherRingCache.get(nodeTable);
+  if (q === undefined) {
+    const rings = ellRings(bank);
+    const ncc = nc * nc;
+    const nU = rings.ell.length;
+    q = new Float64Array(nU * ncc);
+    const step = bank.grid.step;
+    const last = bank.grid.nNodes - 2;
+    for (let u = 0; u < nU; u++) {
+      // the node and fraction of buildModeGrid (./modeGrid.ts) for this ring's ℓ
+      const x = (rings.ell[u] as number) / step;
+      const i = Math.min(Math.floor(x), last);
+      const t = x - i;
+      const w = rings.weight[u] as number;
+      for (let c = 0; c < ncc; c++) q[u * ncc + c] = w * ((nodeTable[i * ncc + c] as number) * (1 - t) + (nodeTable[(i + 1) * ncc + c] as number) * t);
+    }
+    fisherRingCache.set(nodeTable, q);
+  }
+  return q;
+}
+
+/**
+ * One position's rings: D[u·nw + j] = Σ_{m∈u} h_m Re[W_j,m e^{+2πi k_m·x0}] for each whitened
+ * spectrum W_j (`spectra`: the bank's per band, or per component from {@link combineSeds}) at pixel
+ * position (px, py) (0-based, fractional allowed). One pass over the modes; written into `out` when
+ * it is long enough (nRings × nw).
+ */
+export function positionRings(bank: FitBank, spectra: readonly Float64Array[], px: number, py: number, scratch: FitScratch = createFitScratch(bank), out?: Float64Array): Float64Array {
+  const { nx, ny } = bank.geometry;
+  const { ringOf, ell } = ellRings(bank);
+  const nw = spectra.length;
+  const size = ell.length * nw;
+  const D = out !== undefined && out.length >= size ? out : new Float64Array(size);
+  D.fill(0, 0, size);
+  const { ex, ey } = scratch;
+  // conjugate shift phases: the fit correlates the data with the template centred at (px, py)
+  shiftPhases(nx, px, 1, "half", ex);
+  shiftPhases(ny, py, 1, "full", ey);
+  const { kxIndex, kyIndex, hermitianWeight } = bank.layout;
+  if (nw === 1) ringSumsOne(kxIndex, kyIndex, hermitianWeight, ringOf, ex, ey, ny, spectra[0] as Float64Array, D);
+  else for (let j = 0; j < nw; j++) ringSumsStrided(kxIndex, kyIndex, hermitianWeight, ringOf, ex, ey, ny, spectra[j] as Float64Array, D, nw, j);
+  return D;
+}
+
+/** D[ringOf[m]] += h_m Re[e_m p_m] over all modes, p the shift phase (one spectrum: the common case, kept small so it compiles well). */
+function ringSumsOne(kxIndex: Int32Array, kyIndex: Int32Array, hw: Float64Array, ringOf: Int32Array, ex: Float64Array, ey: Float64Array, ny: number, e: Float64Array, D: Float64Array): void {
+  const n = ringOf.length;
+  for (let m = 0; m < n; m++) {
+    const kx = kxIndex[m] as number;
+    let ky = kyIndex[m] as number;
+    if (ky < 0) ky += ny;
+    const xr = ex[2 * kx] as number;
+    const xi = ex[2 * kx + 1] as number;
+    const yr = ey[2 * ky] as number;
+    const yi = ey[2 * ky + 1] as number;
+    const pr = xr * yr - xi * yi;
+    const pi = xr * yi + xi * yr;
+    D[ringOf[m] as number] += (hw[m] as number) * ((e[2 * m] as number) * pr - (e[2 * m + 1] as number) * pi);
+  }
+}
+
+/** As {@link ringSumsOne} for spectrum j of nw, into D[ring·nw + j]. */
+function ringSumsStrided(kxIndex: Int32Array, kyIndex: Int32Array, hw: Float64Array, ringOf: Int32Array, ex: Float64Array, ey: Float64Array, ny: number, e: Float64Array, D: Float64Array, nw: number, j: number): void {
+  const n = ringOf.length;
+  for (let m = 0; m < n; m++) {
+    const kx = kxIndex[m] as number;
+    let ky = kyIndex[m] as number;
+    if (ky < 0) ky += ny;
+    const xr = ex[2 * kx] as number;
+    const xi = ex[2 * kx + 1] as number;
+    const yr = ey[2 * ky] as number;
+    const yi = ey[2 * ky + 1] as number;
+    const pr = xr * yr - xi * yi;
+    const pi = xr * yi + xi * yr;
+    D[(ringOf[m] as number) * nw + j] += (hw[m] as number) * ((e[2 * m] as number) * pr - (e[2 * m + 1] as number) * pi);
+  }
+}
+
+/**
+ * The fit at profile scale `thetaRad` from a position's rings (`rings` from {@link positionRings}
+ * over `combined` when given, else over the bank's whitened spectra); see {@link fitAtPosition}.
+ * Costs one pass over the rings, not over the modes.
+ */
+export function fitFromRings(
+  bank: FitBank,
+  table: ProfileTable,
+  thetaRad: number,
+  seds: readonly Float64Array[],
+  rings: Float64Array,
+  nodeTable: Float64Array = sedNodeTable(bank, seds),
+  combined: readonly Float64Array[] | null = null,
+): ComponentFit {
+  const nc = seds.length;
+  const ncc = nc * nc;
+  const nw = combined?.length ?? bank.nBands;
+  const ellU = ellRings(bank).ell;
+  const Q = fisherRings(bank, nodeTable, nc);
+  const T = new Float64Array(nw);
+  const F = new Float64Array(ncc);
+  const theta2 = thetaRad * thetaRad;
+  // profileAt inlined: rings come in increasing ℓ, so the first ring past the table ends the sum
+  const gt = table.g;
+  const du = table.du;
+  const last = gt.length - 1;
+  if (nw === 1 && ncc === 1) {
+    let t0 = 0;
+    let f0 = 0;
+    for (let u = 0; u < ellU.length; u++) {
+      const x = ((ellU[u] as number) * thetaRad) / du;
+      const i = Math.floor(x);
+      if (i >= last) break;
+      const t = x - i;
+      const g = ((gt[i] as number) * (1 - t) + (gt[i + 1] as number) * t) * theta2;
+      if (g === 0) continue;
+      t0 += g * (rings[u] as number);
+      f0 += g * g * (Q[u] as number);
+    }
+    T[0] = t0;
+    F[0] = f0;
+    return solveComponents(bank, seds, combined, T, F);
+  }
+  for (let u = 0; u < ellU.length; u++) {
+    const g = profileAt(table, (ellU[u] as number) * thetaRad) * theta2;
+    if (g === 0) {
+      if (Math.floor(((ellU[u] as number) * thetaRad) / du) >= last) break;
+      continue;
+    }
+    for (let j = 0; j < nw; j++) T[j] += g * (rings[u * nw + j] as number);
+    const gg = g * g;
+    for (let q = 0; q < ncc; q++) F[q] += gg * (Q[u * ncc + q] as number);
+  }
+  return solveComponents(bank, seds, combined, T, F);
+}
+
 /**
  * Fit the components with SEDs `seds` (K_CMB per unit amplitude, one value per band) and the
  * profile `table` of scale `thetaRad` at pixel position (px, py) (0-based, fractional allowed).
+ * `combined` ({@link combineSeds} of `seds`) makes the pass over the modes cheaper. Equal to
+ * {@link fitFromRings} of {@link positionRings}, number for number.
  * Throws BAD_DATA when the Fisher matrix is singular (e.g. a component fully deprojected).
  */
 export function fitAtPosition(
@@ -89,52 +290,19 @@ export function fitAtPosition(
   nodeTable: Float64Array = sedNodeTable(bank, seds),
   combined: readonly Float64Array[] | null = null,
 ): ComponentFit {
+  const rings = positionRings(bank, combined ?? bank.whitened, px, py, scratch, scratch.rings);
+  scratch.rings = rings;
+  return fitFromRings(bank, table, thetaRad, seds, rings, nodeTable, combined);
+}
+
+/**
+ * The amplitudes and covariance from the accumulated sums of a fit: T (one per whitened spectrum,
+ * or per component with `combined`) and the Fisher sums F (nc × nc). Throws BAD_DATA when the
+ * Fisher matrix is singular or a variance is not positive.
+ */
+function solveComponents(bank: FitBank, seds: readonly Float64Array[], combined: readonly Float64Array[] | null, T: Float64Array, F: Float64Array): ComponentFit {
   const nb = bank.nBands;
   const nc = seds.length;
-  const { nx, ny } = bank.geometry;
-  const { kxIndex, kyIndex, hermitianWeight, modeCount } = bank.layout;
-  const { ex, ey } = scratch;
-  // conjugate shift phases: the fit correlates the data with the template centred at (px, py)
-  shiftPhases(nx, px, 1, "half", ex);
-  shiftPhases(ny, py, 1, "full", ey);
-  // with `combined` (D_c = Σ_j A_jc E_j per component, see combineSeds) the sum runs over
-  // components instead of bands
-  const W = combined ?? bank.whitened;
-  const nw = W.length;
-  const T = new Float64Array(nw);
-  const F = new Float64Array(nc * nc);
-  const theta2 = thetaRad * thetaRad;
-  const { index, frac } = bank.grid;
-  const ells = bank.ells;
-  const ncc = nc * nc;
-  // one component: the Fisher weight aᵀQa per mode, interpolated once per node table
-  const qMode = nc === 1 ? perModeTable(bank, nodeTable) : null;
-  for (let m = 0; m < modeCount; m++) {
-    const g = profileAt(table, (ells[m] as number) * thetaRad) * theta2;
-    if (g === 0) continue;
-    const w = (hermitianWeight[m] as number) * g;
-    const kx = kxIndex[m] as number;
-    let ky = kyIndex[m] as number;
-    if (ky < 0) ky += ny;
-    const xr = ex[2 * kx] as number;
-    const xi = ex[2 * kx + 1] as number;
-    const yr = ey[2 * ky] as number;
-    const yi = ey[2 * ky + 1] as number;
-    const pr = xr * yr - xi * yi;
-    const pi = xr * yi + xi * yr;
-    for (let j = 0; j < nw; j++) {
-      const e = W[j] as Float64Array;
-      T[j] += w * ((e[2 * m] as number) * pr - (e[2 * m + 1] as number) * pi);
-    }
-    const wg = w * g;
-    if (qMode !== null) {
-      F[0] += wg * (qMode[m] as number);
-      continue;
-    }
-    const n0 = (index[m] as number) * ncc;
-    const t = frac[m] as number;
-    for (let q = 0; q < ncc; q++) F[q] += wg * ((nodeTable[n0 + q] as number) * (1 - t) + (nodeTable[n0 + ncc + q] as number) * t);
-  }
   const norm = 1 / (bank.nPix * bank.pixelSr);
   const b = new Float64Array(nc);
   for (let c = 0; c < nc; c++) {
@@ -181,22 +349,4 @@ export function combineSeds(bank: FilterBank, seds: readonly Float64Array[]): Fl
     }
     return out;
   });
-}
-
-const perMode = new WeakMap<Float64Array, Float64Array>();
-
-/** A one-component node table interpolated to every mode (cached per table). */
-function perModeTable(bank: FitBank, nodeTable: Float64Array): Float64Array {
-  let q = perMode.get(nodeTable);
-  if (q === undefined) {
-    q = new Float64Array(bank.layout.modeCount);
-    const { index, frac } = bank.grid;
-    for (let m = 0; m < q.length; m++) {
-      const n = index[m] as number;
-      const t = frac[m] as number;
-      q[m] = (nodeTable[n] as number) * (1 - t) + (nodeTable[n + 1] as number) * t;
-    }
-    perMode.set(nodeTable, q);
-  }
-  return q;
 }

@@ -1,10 +1,13 @@
 /**
  * A batch of matched-filter fits on one bank: the same fits, in any order, on any number of
  * threads, give bit-identical results. The batch form every thread runs: task i = (θ, px, py,
- * SED set); results go into a flat array (status, amplitudes, covariance per task).
+ * SED set); results go into a flat array (status, amplitudes, covariance per task). Fits at the same
+ * position with the same SEDs (a size scan, the re-fits of a candidate at every size) form one group,
+ * taken by one thread: one pass over the modes for the position's rings, then one pass over the
+ * rings per size (../mmf/fit.ts).
  */
 import { UmbraError } from "@umbra/core";
-import { combineSeds, createFitScratch, fitAtPosition, sedNodeTable, type ComponentFit, type FitBank } from "../mmf/fit.js";
+import { combineSeds, createFitScratch, fitFromRings, positionRings, sedNodeTable, type ComponentFit, type FitBank } from "../mmf/fit.js";
 import type { FilterBank } from "../mmf/bank.js";
 import type { ProfileTable } from "../mmf/profile.js";
 import type { SedFilter } from "../mmf/filteredMap.js";
@@ -35,8 +38,12 @@ export const FIT_FAILED = 3;
 
 /** The arrays a batch shares between threads (SharedArrayBuffer-backed when threads are used). */
 export interface BatchArrays {
-  /** [next task to take, tasks finished, tasks finished by worker threads]. */
+  /** [next group to take, tasks finished, tasks finished by worker threads]. */
   readonly control: Int32Array;
+  /** Task indices grouped by position and SED set (groups in order of first task). */
+  readonly groupTasks: Int32Array;
+  /** Start of each group in groupTasks, and the end (length groups + 1). */
+  readonly groupStart: Int32Array;
   /** Per task: θ (rad), px, py, SED-set index. */
   readonly tasks: Float64Array;
   /** Per task: status (see the FIT_* codes). */
@@ -47,7 +54,7 @@ export interface BatchArrays {
 }
 
 /** The SED sets of `requests` on `bank` (one per key, in order of first use) and each request's set index. */
-export function sedSets(bank: FilterBank, requests: readonly FitRequest[]): { sets: SedSet[]; index: Int32Array } {
+export function sedSets(bank: FilterBank, requests: readonly Pick<FitRequest, "seds" | "sedKey">[]): { sets: SedSet[]; index: Int32Array } {
   const byKey = new Map<string, number>();
   const sets: SedSet[] = [];
   const index = new Int32Array(requests.length);
@@ -71,34 +78,59 @@ export function batchArrays(requests: readonly FitRequest[], setIndex: Int32Arra
   const buf = (bytes: number) => (shared ? new SharedArrayBuffer(bytes) : new ArrayBuffer(bytes));
   const tasks = new Float64Array(buf(8 * 4 * n));
   requests.forEach((r, i) => tasks.set([r.thetaRad, r.px, r.py, setIndex[i] as number], 4 * i));
-  return { control: new Int32Array(buf(12)), tasks, status: new Int32Array(buf(4 * n)), results: new Float64Array(buf(8 * stride * n)), stride };
+  const groups = new Map<string, number[]>();
+  requests.forEach((r, i) => {
+    const key = `${setIndex[i] as number} ${r.px} ${r.py}`;
+    const g = groups.get(key);
+    if (g === undefined) groups.set(key, [i]);
+    else g.push(i);
+  });
+  const groupTasks = new Int32Array(buf(4 * n));
+  const groupStart = new Int32Array(buf(4 * (groups.size + 1)));
+  let o = 0;
+  let k = 0;
+  for (const members of groups.values()) {
+    groupStart[k++] = o;
+    for (const i of members) groupTasks[o++] = i;
+  }
+  groupStart[k] = o;
+  return { control: new Int32Array(buf(12)), groupTasks, groupStart, tasks, status: new Int32Array(buf(4 * n)), results: new Float64Array(buf(8 * stride * n)), stride };
 }
 
 /**
- * Take tasks from the batch until none is left (Atomics on the shared counters, so several threads
- * can run this at once) and fit each; returns how many this thread did.
+ * Take groups of tasks from the batch until none is left (Atomics on the shared counters, so several
+ * threads can run this at once) and fit each task; returns how many tasks this thread did.
  */
 export function runBatchTasks(bank: FitBank, table: ProfileTable, sets: readonly SedSet[], a: BatchArrays, inWorker = false): number {
-  const n = a.status.length;
+  const nGroups = a.groupStart.length - 1;
   const scratch = createFitScratch(bank);
   let done = 0;
   for (;;) {
-    const i = Atomics.add(a.control, 0, 1);
-    if (i >= n) break;
-    const set = sets[a.tasks[4 * i + 3] as number] as SedSet;
-    let status = FIT_OK;
-    try {
-      const f = fitAtPosition(bank, table, a.tasks[4 * i] as number, set.seds, a.tasks[4 * i + 1] as number, a.tasks[4 * i + 2] as number, scratch, set.nodeTable, set.combined);
-      a.results.set(f.amplitudes, i * a.stride);
-      a.results.set(f.covariance, i * a.stride + f.amplitudes.length);
-    } catch (e) {
-      status = e instanceof UmbraError && e.code === "BAD_DATA" ? FIT_SINGULAR : FIT_FAILED;
+    const g = Atomics.add(a.control, 0, 1);
+    if (g >= nGroups) break;
+    const g0 = a.groupStart[g] as number;
+    const g1 = a.groupStart[g + 1] as number;
+    const first = a.groupTasks[g0] as number;
+    const set = sets[a.tasks[4 * first + 3] as number] as SedSet;
+    let rings: Float64Array | null = null;
+    for (let q = g0; q < g1; q++) {
+      const i = a.groupTasks[q] as number;
+      let status = FIT_OK;
+      try {
+        rings ??= positionRings(bank, set.combined, a.tasks[4 * i + 1] as number, a.tasks[4 * i + 2] as number, scratch, scratch.rings);
+        scratch.rings = rings;
+        const f = fitFromRings(bank, table, a.tasks[4 * i] as number, set.seds, rings, set.nodeTable, set.combined);
+        a.results.set(f.amplitudes, i * a.stride);
+        a.results.set(f.covariance, i * a.stride + f.amplitudes.length);
+      } catch (e) {
+        status = e instanceof UmbraError && e.code === "BAD_DATA" ? FIT_SINGULAR : FIT_FAILED;
+      }
+      Atomics.store(a.status, i, status);
     }
-    Atomics.store(a.status, i, status);
-    if (inWorker) Atomics.add(a.control, 2, 1);
-    Atomics.add(a.control, 1, 1);
+    if (inWorker) Atomics.add(a.control, 2, g1 - g0);
+    Atomics.add(a.control, 1, g1 - g0);
     Atomics.notify(a.control, 1);
-    done++;
+    done += g1 - g0;
   }
   return done;
 }
@@ -115,4 +147,60 @@ export function batchResult(a: BatchArrays, i: number, nc: number): ComponentFit
 /** The single-SED filter of a one-SED set (what filtered maps take). */
 export function sedFilterOf(set: SedSet): SedFilter {
   return { sed: set.seds[0] as Float64Array, combined: set.combined[0] as Float64Array, nodeTable: set.nodeTable };
+}
+
+/** A fit position without a size: the SEDs (with their key) and the pixel position (0-based). */
+export type PositionRequest = Omit<FitRequest, "thetaRad">;
+
+/** The arrays a batch of ring computations shares between threads. */
+export interface RingArrays {
+  /** [next task to take, tasks finished, tasks finished by worker threads]. */
+  readonly control: Int32Array;
+  /** Per task: px, py, SED-set index. */
+  readonly tasks: Float64Array;
+  /** Per task, `stride` numbers: the position's rings (../mmf/fit.ts positionRings over the set's combined spectra). */
+  readonly rings: Float64Array;
+  readonly stride: number;
+}
+
+/** Allocate a ring batch for `positions` (stride: rings × spectra per position; SharedArrayBuffers when `shared`). */
+export function ringArrays(positions: readonly PositionRequest[], setIndex: Int32Array, stride: number, shared: boolean): RingArrays {
+  const n = positions.length;
+  const buf = (bytes: number) => (shared ? new SharedArrayBuffer(bytes) : new ArrayBuffer(bytes));
+  const tasks = new Float64Array(buf(8 * 3 * n));
+  positions.forEach((r, i) => tasks.set([r.px, r.py, setIndex[i] as number], 3 * i));
+  return { control: new Int32Array(buf(12)), tasks, rings: new Float64Array(buf(8 * stride * n)), stride };
+}
+
+/** Take ring tasks until none is left and compute each position's rings into its slot; returns how many this thread did. */
+export function runRingTasks(bank: FitBank, sets: readonly SedSet[], a: RingArrays, inWorker = false): number {
+  const n = a.tasks.length / 3;
+  const scratch = createFitScratch(bank);
+  let done = 0;
+  for (;;) {
+    const i = Atomics.add(a.control, 0, 1);
+    if (i >= n) break;
+    const set = sets[a.tasks[3 * i + 2] as number] as SedSet;
+    positionRings(bank, set.combined, a.tasks[3 * i] as number, a.tasks[3 * i + 1] as number, scratch, a.rings.subarray(i * a.stride, (i + 1) * a.stride));
+    if (inWorker) Atomics.add(a.control, 2, 1);
+    Atomics.add(a.control, 1, 1);
+    Atomics.notify(a.control, 1);
+    done++;
+  }
+  return done;
+}
+
+/** Fits at any profile scale (rad) of one position: the fit, or null where the Fisher matrix is singular. */
+export type SizeFitter = (thetaRad: number) => ComponentFit | null;
+
+/** The {@link SizeFitter} of a position from its rings (computed over `set`'s combined spectra). */
+export function sizeFitter(bank: FitBank, table: ProfileTable, set: SedSet, rings: Float64Array): SizeFitter {
+  return (thetaRad) => {
+    try {
+      return fitFromRings(bank, table, thetaRad, set.seds, rings, set.nodeTable, set.combined);
+    } catch (e) {
+      if (e instanceof UmbraError && e.code === "BAD_DATA") return null;
+      throw e;
+    }
+  };
 }

@@ -8,9 +8,22 @@
 import type { Worker } from "node:worker_threads";
 import { UmbraError, startWorker } from "@umbra/core";
 import type { FilterBank } from "../mmf/bank.js";
-import type { ComponentFit, FitBank } from "../mmf/fit.js";
+import { ellRings, type ComponentFit, type FitBank } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
-import { batchArrays, batchResult, runBatchTasks, sedSets, sedFilterOf, type FitRequest, type SedSet } from "./fitBatch.js";
+import {
+  batchArrays,
+  batchResult,
+  ringArrays,
+  runBatchTasks,
+  runRingTasks,
+  sedSets,
+  sedFilterOf,
+  sizeFitter,
+  type FitRequest,
+  type PositionRequest,
+  type SedSet,
+  type SizeFitter,
+} from "./fitBatch.js";
 import { mergeSizeSlots, runSizeTasks, sizeArrays } from "./sizeBatch.js";
 import { runPaintTasks, type PaintArrays } from "./paintBatch.js";
 import { paintClusters, type PaintedCluster } from "../photometry/model.js";
@@ -24,6 +37,13 @@ export interface FitRunner {
   readonly threads: number;
   /** Fit every request on `bank` (null where the Fisher matrix is singular), in request order. */
   fitMany(bank: FilterBank, table: ProfileTable, requests: readonly FitRequest[]): (ComponentFit | null)[];
+  /**
+   * For each position, a function that fits it at any size in this thread: the positions' rings are
+   * computed here as one batch (one pass over the modes each, on the runner's threads), after which
+   * each fit costs one pass over the rings. Fits equal {@link FitRunner.fitMany}'s number for number.
+   * Each fitter holds its position's rings (8 bytes × rings × components) until it is dropped.
+   */
+  sizeFitters(bank: FilterBank, table: ProfileTable, positions: readonly PositionRequest[]): SizeFitter[];
   /**
    * The S/N maps of a single-SED filter at every size (radians) on `bank`, folded into the best S/N
    * per pixel and the index of the size that gave it, plus each size's σ. `onMap` (given: this
@@ -60,8 +80,14 @@ export const serialFits: FitRunner = {
     runBatchTasks(bank, table, sets, a);
     return requests.map((r, i) => batchResult(a, i, r.seds.length));
   },
+  sizeFitters(bank, table, positions) {
+    const { sets, index } = cachedSedSets(bank, positions);
+    const a = ringArrays(positions, index, ringStride(bank, positions), false);
+    runRingTasks(bank, sets, a);
+    return fittersFrom(bank, table, sets, index, a.rings, a.stride);
+  },
   bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
-    const set = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, thetaRad: 0, px: 0, py: 0 }]).sets[0] as SedSet;
+    const set = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, px: 0, py: 0 }]).sets[0] as SedSet;
     const a = sizeArrays(sizesRad.length, plan.nx * plan.ny, 1, false);
     runSizeTasks(bank, plan, table, sedFilterOf(set), Float64Array.from(sizesRad), noise, a, 0, onMap);
     return { best: a.best[0] as Float64Array, arg: a.arg[0] as Uint8Array, sigmas: a.sigmas };
@@ -71,6 +97,16 @@ export const serialFits: FitRunner = {
   workerTasks: 0,
   close: async () => undefined,
 };
+
+/** Numbers per position in a ring batch: rings × the widest SED set's components. */
+function ringStride(bank: FilterBank, positions: readonly PositionRequest[]): number {
+  return ellRings(bank).ell.length * Math.max(1, ...positions.map((p) => p.seds.length));
+}
+
+/** The fitters of a finished ring batch. */
+function fittersFrom(bank: FilterBank, table: ProfileTable, sets: readonly SedSet[], index: Int32Array, rings: Float64Array, stride: number): SizeFitter[] {
+  return Array.from(index, (k, i) => sizeFitter(bank, table, sets[k] as SedSet, rings.subarray(i * stride, (i + 1) * stride)));
+}
 
 /** Banks whose arrays the worker threads hold (oldest first dropped beyond this many). */
 const KEPT_CONTEXTS = 3;
@@ -172,9 +208,20 @@ export function createFitPool(threads: number, options: { callerTakesTasks?: boo
       workerTasks += Atomics.load(a.control, 2);
       return requests.map((r, i) => batchResult(a, i, r.seds.length));
     },
+    sizeFitters(bank, table, positions) {
+      if (positions.length < 2 || workers.length === 0) return serialFits.sizeFitters(bank, table, positions);
+      const { sets, index, keys } = cachedSedSets(bank, positions);
+      const a = ringArrays(positions, index, ringStride(bank, positions), true);
+      const id = share(bank, keys, sets);
+      post({ kind: "rings", id, keys, arrays: a });
+      if (callerTakes) runRingTasks(bank, sets, a);
+      waitFor(a.control, positions.length, "ring sums");
+      workerTasks += Atomics.load(a.control, 2);
+      return fittersFrom(bank, table, sets, index, a.rings, a.stride);
+    },
     bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
       if (onMap !== undefined || workers.length === 0 || sizesRad.length < 2) return serialFits.bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap);
-      const { sets, keys } = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, thetaRad: 0, px: 0, py: 0 }]);
+      const { sets, keys } = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, px: 0, py: 0 }]);
       const id = share(bank, keys, sets);
       let noiseId: number | null = null;
       if (noise !== null) {
@@ -225,7 +272,7 @@ export function createFitPool(threads: number, options: { callerTakesTasks?: boo
 const setCache = new WeakMap<FilterBank, Map<string, SedSet>>();
 
 /** {@link sedSets} with each bank's SED combinations computed once (they cost a pass over every band's spectrum). */
-function cachedSedSets(bank: FilterBank, requests: readonly FitRequest[]): { sets: SedSet[]; index: Int32Array; keys: string[] } {
+function cachedSedSets(bank: FilterBank, requests: readonly PositionRequest[]): { sets: SedSet[]; index: Int32Array; keys: string[] } {
   let m = setCache.get(bank);
   if (m === undefined) {
     m = new Map();

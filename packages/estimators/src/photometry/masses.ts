@@ -1,14 +1,17 @@
 /**
  * M500 from the measured Y for every cluster with a redshift: the Y–M relation solved with the
- * aperture (each trial θ500 re-fits the cluster at that size). With a step-wise solver
- * (ClusterPhysics.massFromYSteps) all clusters advance together and each step's re-fits run as one
- * batch on the fit runner (so on several threads when it has them); otherwise each cluster is
- * solved in turn. Both give the same numbers.
+ * aperture (each trial θ500 re-fits the cluster at that size). The clusters' rings (one pass over the
+ * Fourier modes per cluster, ../mmf/fit.ts) are computed in chunks as batches on the fit runner (so
+ * on several threads when it has them); each trial size then costs one pass over the rings, in this
+ * thread. A step-wise solver (ClusterPhysics.massFromYSteps) and a callback solver
+ * (ClusterPhysics.massFromY) give the same numbers.
  */
 import { RAD_PER_ARCMIN, UmbraError } from "@umbra/core";
 import type { FilterBank } from "../mmf/bank.js";
+import { ellRings } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
 import type { FitRunner } from "../parallel/fitPool.js";
+import type { SizeFitter } from "../parallel/fitBatch.js";
 import type { ClusterPhysics } from "./types.js";
 
 /** A cluster whose mass is wanted: its SEDs, position and redshift. */
@@ -25,6 +28,9 @@ export type MassOutcome = { readonly m500Msun: number; readonly m500ErrMsun: num
 
 type YAt = { yArcmin2: number; yErrArcmin2: number };
 
+/** Memory for the rings of one chunk of clusters (bytes): 256 MiB holds ~85 clusters' rings on a 2048² map. */
+const RING_CHUNK_BYTES = 256 * 2 ** 20;
+
 /** Masses of `targets` (null entries are skipped and give null). Y(θ) = y0(θ) θ² g(0) from a fit at θ. */
 export function massesFromY(
   bank: FilterBank,
@@ -33,84 +39,43 @@ export function massesFromY(
   physics: ClusterPhysics,
   runner: FitRunner,
 ): (MassOutcome | null)[] {
-  const caches = targets.map(() => new Map<number, YAt | null>());
-  const fitAt = (list: readonly { k: number; theta: number }[]): void => {
-    const fits = runner.fitMany(bank, table, list.map(({ k, theta }) => {
-      const t = targets[k] as MassTarget;
-      return { seds: t.seds, sedKey: t.sedKey, thetaRad: theta * RAD_PER_ARCMIN, px: t.px, py: t.py };
-    }));
-    list.forEach(({ k, theta }, i) => {
-      const f = fits[i];
-      const area = theta * theta * table.integralUnitScale;
-      caches[k]?.set(theta, f == null ? null : { yArcmin2: (f.amplitudes[0] as number) * area, yErrArcmin2: Math.sqrt(f.covariance[0] as number) * area });
-    });
-  };
   const out: (MassOutcome | null)[] = targets.map(() => null);
-  if (physics.massFromYSteps === undefined) {
-    const solveOne = physics.massFromY;
-    if (solveOne === undefined) return out;
-    targets.forEach((t, k) => {
-      if (t === null) return;
-      const yAt = (theta: number): YAt => {
-        if (!caches[k]!.has(theta)) fitAt([{ k, theta }]);
-        const r = caches[k]!.get(theta);
-        if (r == null) throw new UmbraError("BAD_DATA", "singular matched-filter fit while solving for the mass");
-        return r;
-      };
-      out[k] = attempt(() => solveOne(yAt, t.z));
+  if (physics.massFromYSteps === undefined && physics.massFromY === undefined) return out;
+  const live = targets.flatMap((t, k) => (t === null ? [] : [k]));
+  const perCluster = 8 * ellRings(bank).ell.length * Math.max(1, ...live.map((k) => (targets[k] as MassTarget).seds.length));
+  const chunk = Math.max(1, Math.floor(RING_CHUNK_BYTES / perCluster));
+  for (let c0 = 0; c0 < live.length; c0 += chunk) {
+    const ks = live.slice(c0, c0 + chunk);
+    const fitters = runner.sizeFitters(bank, table, ks.map((k) => targets[k] as MassTarget));
+    ks.forEach((k, i) => {
+      out[k] = solveMass(fitters[i] as SizeFitter, table, physics, (targets[k] as MassTarget).z);
     });
-    return out;
-  }
-  const steps = targets.map((t) => (t === null ? null : (physics.massFromYSteps as NonNullable<ClusterPhysics["massFromYSteps"]>)(t.z)));
-  // the θ each unfinished solver waits for
-  const waiting = new Map<number, number>();
-  const advance = (k: number, answer: YAt | undefined): void => {
-    const gen = steps[k];
-    if (gen == null) return;
-    let value = answer;
-    for (;;) {
-      let r: IteratorResult<number, { m500Msun: number; m500ErrMsun: number }>;
-      try {
-        r = value === undefined ? gen.next() : gen.next(value);
-      } catch (e) {
-        if (!(e instanceof UmbraError)) throw e;
-        out[k] = "failed";
-        return;
-      }
-      if (r.done === true) {
-        out[k] = { m500Msun: r.value.m500Msun, m500ErrMsun: r.value.m500ErrMsun };
-        return;
-      }
-      const theta = r.value;
-      if (!caches[k]!.has(theta)) {
-        waiting.set(k, theta);
-        return;
-      }
-      const cached = caches[k]!.get(theta);
-      if (cached == null) {
-        out[k] = "failed";
-        return;
-      }
-      value = cached;
-    }
-  };
-  targets.forEach((_, k) => advance(k, undefined));
-  while (waiting.size > 0) {
-    const round = [...waiting.entries()].map(([k, theta]) => ({ k, theta }));
-    waiting.clear();
-    fitAt(round);
-    for (const { k, theta } of round) {
-      const r = caches[k]!.get(theta);
-      if (r == null) out[k] = "failed";
-      else advance(k, r);
-    }
   }
   return out;
 }
 
-function attempt(f: () => { m500Msun: number; m500ErrMsun: number }): MassOutcome {
+/** One cluster's mass from its size fitter, with the step-wise solver when there is one. */
+function solveMass(fit: SizeFitter, table: ProfileTable, physics: ClusterPhysics, z: number): MassOutcome {
+  const cache = new Map<number, YAt>();
+  const yAt = (theta: number): YAt => {
+    let y = cache.get(theta);
+    if (y === undefined) {
+      const f = fit(theta * RAD_PER_ARCMIN);
+      if (f === null) throw new UmbraError("BAD_DATA", "singular matched-filter fit while solving for the mass");
+      const area = theta * theta * table.integralUnitScale;
+      y = { yArcmin2: (f.amplitudes[0] as number) * area, yErrArcmin2: Math.sqrt(f.covariance[0] as number) * area };
+      cache.set(theta, y);
+    }
+    return y;
+  };
   try {
-    const m = f();
+    if (physics.massFromYSteps !== undefined) {
+      const gen = physics.massFromYSteps(z);
+      let r = gen.next();
+      while (r.done !== true) r = gen.next(yAt(r.value));
+      return { m500Msun: r.value.m500Msun, m500ErrMsun: r.value.m500ErrMsun };
+    }
+    const m = (physics.massFromY as NonNullable<ClusterPhysics["massFromY"]>)(yAt, z);
     return { m500Msun: m.m500Msun, m500ErrMsun: m.m500ErrMsun };
   } catch (e) {
     if (!(e instanceof UmbraError)) throw e;

@@ -6,7 +6,7 @@
  */
 import { shiftPhases } from "@umbra/maps";
 import type { FitBank } from "../mmf/fit.js";
-import { profileAt, type ProfileTable } from "../mmf/profile.js";
+import type { ProfileTable } from "../mmf/profile.js";
 
 /** One cluster to paint: pixel position, scale and per-band amplitude (K_CMB at the centre before the beam). */
 export interface PaintedCluster {
@@ -39,6 +39,10 @@ export function paintModeRange(bank: FitBank, table: ProfileTable, out: readonly
   const { kxIndex, kyIndex } = bank.layout;
   const { index, frac } = bank.grid;
   const bn = bank.beamNodes;
+  const ells = bank.ells;
+  const gt = table.g;
+  const du = table.du;
+  const last = gt.length - 1;
   const ex = new Float64Array(2 * nx);
   const ey = new Float64Array(2 * ny);
   // clusters with a shared SED: accumulate y-model spectra per SED, spread over bands at the end
@@ -50,8 +54,14 @@ export function paintModeRange(bank: FitBank, table: ProfileTable, out: readonly
     shiftPhases(ny, c.py, -1, "full", ey);
     // a shared-SED cluster goes into its SED's accumulator; the others straight into every band
     const scale = ((sign * c.thetaRad * c.thetaRad) / bank.pixelSr) * (acc !== null && c.shared !== undefined ? c.shared.amplitude : 1);
+    const theta = c.thetaRad;
     for (let m = m0; m < m1; m++) {
-      const g = profileAt(table, (bank.ells[m] as number) * c.thetaRad) * scale;
+      // profileAt (../mmf/profile.ts) written out: the call costs more than the interpolation here
+      const x = ((ells[m] as number) * theta) / du;
+      const j = Math.floor(x);
+      if (j >= last) continue;
+      const f = x - j;
+      const g = ((gt[j] as number) * (1 - f) + (gt[j + 1] as number) * f) * scale;
       if (g === 0) continue;
       const kx = kxIndex[m] as number;
       let ky = kyIndex[m] as number;

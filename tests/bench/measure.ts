@@ -5,7 +5,8 @@
  *
  * Both run the same single pass: covariance from the data (beam-deconvolved, adaptive ell bins,
  * [1, 2, 1] smoothing), inverse noise on a fine ell grid, pre-whitening, and one matched-filter
- * fit per cluster at its θ500 (direct sum over Fourier modes). umbra's default pipeline adds the
+ * fit per cluster at its θ500 (numpy: a direct sum over the Fourier modes; umbra: the same sum taken
+ * through rings of equal ℓ, docs/matched-filter.md). umbra's default pipeline adds the
  * cluster-cleaning / joint-fit iterations, random positions and point-source flags; its time is
  * reported separately (`--full`). The two y0 columns are compared as a cross-check.
  *

@@ -169,7 +169,7 @@ const SECTIONS: Section[] = [
   {
     name: "threads",
     title: "Worker-thread speed-up (forced photometry and blind search)",
-    what: "`umbra measure` (truth catalogue, masses) and `umbra search` (15 sizes) of the invented 1024² three-band deep field (deep-1024-timing scenario; quick: 256²), whole map and in sky tiles, each with `--workers 1` and `--workers 2`; the two write identical files (checked). Speed-up = one-thread time ÷ this time, thread start-up included.",
+    what: "`umbra measure` (truth catalogue, masses) and `umbra search` (15 sizes) of the invented 1024² three-band deep field (deep-1024-timing scenario; quick: 256²), whole map and in sky tiles, each with `--workers 1` and `--workers 2`; the two write identical files (checked). Speed-up = one-thread time ÷ this time, thread start-up included. A tile's fits cost less than the whole map's (fewer Fourier modes per fit), so tiled one-thread runs can be faster than whole-map ones; tile results differ slightly from whole-map ones (each tile has its own covariance). The serial parts (band transforms, covariance estimates, bank building, point-source detection, thread start-up) bound the speed-up.",
     async run(quick) {
       const { benchThreads } = await import("./threads.js");
       return (await benchThreads({ quick })) as unknown as Row[];

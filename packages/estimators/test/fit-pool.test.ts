@@ -57,6 +57,19 @@ describe("fit pool", () => {
     expect(two.clusters).toEqual(one.clusters);
     expect(one.clusters.every((c) => c.m500Msun > 0)).toBe(true);
     expect(one.clusters[0]!.scan!.length).toBe(3);
+    // the same solver given as a callback (each cluster solved in turn) gives the same masses
+    const callback = {
+      angularDiameterDistanceMpc: physics.angularDiameterDistanceMpc,
+      massFromY(yAt: (theta: number) => { yArcmin2: number; yErrArcmin2: number }, z: number) {
+        const gen = physics.massFromYSteps();
+        let r = gen.next();
+        while (r.done !== true) r = gen.next(yAt(r.value));
+        void z;
+        return r.value;
+      },
+    };
+    const alone = measureClusters(stack, cat, { ...opts, physics: callback });
+    expect(alone.clusters.map((c) => [c.m500Msun, c.m500ErrMsun])).toEqual(one.clusters.map((c) => [c.m500Msun, c.m500ErrMsun]));
   }, 60_000);
 
   it("gives search results identical to one thread, with and without depth (ivar) maps", () => {

@@ -1,7 +1,7 @@
 /**
  * The matched-filter fit through rings of equal ℓ (src/mmf/fit.ts): the rings partition the modes,
  * the ring form of the sums equals a direct sum over every mode (the filter's formula, written out in
- * this test), a position's rings serve every size bit for bit, and the fit runner's size fitters and
+ * this test), a position's rings serve every size bit for bit, and the fit runner's ring sets and
  * grouped batches give the numbers of single fits. Invented fields only.
  */
 import { describe, expect, it } from "vitest";
@@ -117,7 +117,7 @@ describe("fits through rings of equal ℓ", () => {
     expect(snr.indexOf(Math.max(...snr))).toBe(2);
   });
 
-  it("gives the runner's size fitters and grouped batches the numbers of single fits, on one thread and on two", async () => {
+  it("gives the runner's ring sets and grouped batches the numbers of single fits, on one thread and on two", async () => {
     const pool = createFitPool(2, { callerTakesTasks: false });
     try {
       await pool.whenReady();
@@ -133,8 +133,10 @@ describe("fits through rings of equal ℓ", () => {
       expect(serialFits.fitMany(bank, table, requests)).toEqual(single);
       expect(pool.fitMany(bank, table, requests)).toEqual(single);
       for (const runner of [serialFits, pool]) {
-        const fitters = runner.sizeFitters(bank, table, positions);
-        requests.forEach((r, i) => expect(fitters[i % positions.length]!(r.thetaRad)).toEqual(single[i]));
+        const rings = runner.ringSet(bank, table, positions);
+        expect(rings.count).toBe(positions.length);
+        requests.forEach((r, i) => expect(rings.fit(i % positions.length, r.thetaRad)).toEqual(single[i]));
+        expect(rings.fitMany(requests.map((r, i) => ({ index: i % positions.length, thetaRad: r.thetaRad })))).toEqual(single);
       }
       expect(pool.workerTasks).toBeGreaterThan(0);
     } finally {

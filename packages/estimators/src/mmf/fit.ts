@@ -177,30 +177,12 @@ export function positionRings(bank: FitBank, spectra: readonly Float64Array[], p
   shiftPhases(nx, px, 1, "half", ex);
   shiftPhases(ny, py, 1, "full", ey);
   const { kxIndex, kyIndex, hermitianWeight } = bank.layout;
-  if (nw === 1) ringSumsOne(kxIndex, kyIndex, hermitianWeight, ringOf, ex, ey, ny, spectra[0] as Float64Array, D);
-  else for (let j = 0; j < nw; j++) ringSumsStrided(kxIndex, kyIndex, hermitianWeight, ringOf, ex, ey, ny, spectra[j] as Float64Array, D, nw, j);
+  for (let j = 0; j < nw; j++) ringSums(kxIndex, kyIndex, hermitianWeight, ringOf, ex, ey, ny, spectra[j] as Float64Array, D, nw, j);
   return D;
 }
 
-/** D[ringOf[m]] += h_m Re[e_m p_m] over all modes, p the shift phase (one spectrum: the common case, kept small so it compiles well). */
-function ringSumsOne(kxIndex: Int32Array, kyIndex: Int32Array, hw: Float64Array, ringOf: Int32Array, ex: Float64Array, ey: Float64Array, ny: number, e: Float64Array, D: Float64Array): void {
-  const n = ringOf.length;
-  for (let m = 0; m < n; m++) {
-    const kx = kxIndex[m] as number;
-    let ky = kyIndex[m] as number;
-    if (ky < 0) ky += ny;
-    const xr = ex[2 * kx] as number;
-    const xi = ex[2 * kx + 1] as number;
-    const yr = ey[2 * ky] as number;
-    const yi = ey[2 * ky + 1] as number;
-    const pr = xr * yr - xi * yi;
-    const pi = xr * yi + xi * yr;
-    D[ringOf[m] as number] += (hw[m] as number) * ((e[2 * m] as number) * pr - (e[2 * m + 1] as number) * pi);
-  }
-}
-
-/** As {@link ringSumsOne} for spectrum j of nw, into D[ring·nw + j]. */
-function ringSumsStrided(kxIndex: Int32Array, kyIndex: Int32Array, hw: Float64Array, ringOf: Int32Array, ex: Float64Array, ey: Float64Array, ny: number, e: Float64Array, D: Float64Array, nw: number, j: number): void {
+/** D[ringOf[m]·nw + j] += h_m Re[e_m p_m] over all modes, p the shift phase of (ex, ey). */
+function ringSums(kxIndex: Int32Array, kyIndex: Int32Array, hw: Float64Array, ringOf: Int32Array, ex: Float64Array, ey: Float64Array, ny: number, e: Float64Array, D: Float64Array, nw: number, j: number): void {
   const n = ringOf.length;
   for (let m = 0; m < n; m++) {
     const kx = kxIndex[m] as number;

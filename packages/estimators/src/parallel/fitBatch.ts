@@ -135,8 +135,8 @@ export function runBatchTasks(bank: FitBank, table: ProfileTable, sets: readonly
   return done;
 }
 
-/** Read task i's fit from the batch arrays (null when singular; INTERNAL when it failed). */
-export function batchResult(a: BatchArrays, i: number, nc: number): ComponentFit | null {
+/** Read task i's fit from a batch's arrays (null when singular; INTERNAL when it failed). */
+export function batchResult(a: Pick<BatchArrays, "status" | "results" | "stride">, i: number, nc: number): ComponentFit | null {
   const s = a.status[i];
   if (s === FIT_SINGULAR) return null;
   if (s !== FIT_OK) throw new UmbraError("INTERNAL", `matched-filter fit ${i} of a batch failed (status ${s})`);
@@ -190,17 +190,64 @@ export function runRingTasks(bank: FitBank, sets: readonly SedSet[], a: RingArra
   return done;
 }
 
-/** Fits at any profile scale (rad) of one position: the fit, or null where the Fisher matrix is singular. */
-export type SizeFitter = (thetaRad: number) => ComponentFit | null;
+/** The arrays of a batch of fits from stored rings (a {@link RingArrays} batch's output), shared between threads. */
+export interface RingFitArrays {
+  /** [next task to take, tasks finished, tasks finished by worker threads]. */
+  readonly control: Int32Array;
+  /** The ring batch's per-position SED-set index and rings. */
+  readonly positions: RingArrays;
+  /** Per task: position index, θ (rad). */
+  readonly tasks: Float64Array;
+  /** Per task: status (see the FIT_* codes). */
+  readonly status: Int32Array;
+  /** Per task, `stride` numbers: nc amplitudes then nc × nc covariance. */
+  readonly results: Float64Array;
+  readonly stride: number;
+}
 
-/** The {@link SizeFitter} of a position from its rings (computed over `set`'s combined spectra). */
-export function sizeFitter(bank: FitBank, table: ProfileTable, set: SedSet, rings: Float64Array): SizeFitter {
-  return (thetaRad) => {
+/** Allocate a batch of fits (position index, θ) from the rings of `positions` (SharedArrayBuffers when `shared`). */
+export function ringFitArrays(positions: RingArrays, list: readonly { index: number; thetaRad: number }[], ncMax: number, shared: boolean): RingFitArrays {
+  const n = list.length;
+  const stride = ncMax + ncMax * ncMax;
+  const buf = (bytes: number) => (shared ? new SharedArrayBuffer(bytes) : new ArrayBuffer(bytes));
+  const tasks = new Float64Array(buf(8 * 2 * n));
+  list.forEach((r, i) => tasks.set([r.index, r.thetaRad], 2 * i));
+  return { control: new Int32Array(buf(12)), positions, tasks, status: new Int32Array(buf(4 * n)), results: new Float64Array(buf(8 * stride * n)), stride };
+}
+
+/** Take fits from stored rings until none is left (see {@link runBatchTasks}); returns how many this thread did. */
+export function runRingFitTasks(bank: FitBank, table: ProfileTable, sets: readonly SedSet[], a: RingFitArrays, inWorker = false): number {
+  const n = a.status.length;
+  const p = a.positions;
+  let done = 0;
+  for (;;) {
+    const i = Atomics.add(a.control, 0, 1);
+    if (i >= n) break;
+    const k = a.tasks[2 * i] as number;
+    const set = sets[p.tasks[3 * k + 2] as number] as SedSet;
+    let status = FIT_OK;
     try {
-      return fitFromRings(bank, table, thetaRad, set.seds, rings, set.nodeTable, set.combined);
+      const f = fitFromRings(bank, table, a.tasks[2 * i + 1] as number, set.seds, p.rings.subarray(k * p.stride, (k + 1) * p.stride), set.nodeTable, set.combined);
+      a.results.set(f.amplitudes, i * a.stride);
+      a.results.set(f.covariance, i * a.stride + f.amplitudes.length);
     } catch (e) {
-      if (e instanceof UmbraError && e.code === "BAD_DATA") return null;
-      throw e;
+      status = e instanceof UmbraError && e.code === "BAD_DATA" ? FIT_SINGULAR : FIT_FAILED;
     }
-  };
+    Atomics.store(a.status, i, status);
+    if (inWorker) Atomics.add(a.control, 2, 1);
+    Atomics.add(a.control, 1, 1);
+    Atomics.notify(a.control, 1);
+    done++;
+  }
+  return done;
+}
+
+/** The rings of several positions (one batch on a fit runner) and fits from them at any sizes. */
+export interface RingSet {
+  /** Number of positions. */
+  readonly count: number;
+  /** Fit position `index` at profile scale `thetaRad` in this thread (null where the Fisher matrix is singular). */
+  fit(index: number, thetaRad: number): ComponentFit | null;
+  /** Fit many (position, scale) pairs on the runner's threads, in list order; the same numbers as {@link RingSet.fit}. */
+  fitMany(list: readonly { index: number; thetaRad: number }[]): (ComponentFit | null)[];
 }

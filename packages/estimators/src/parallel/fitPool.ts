@@ -14,15 +14,18 @@ import {
   batchArrays,
   batchResult,
   ringArrays,
+  ringFitArrays,
   runBatchTasks,
+  runRingFitTasks,
   runRingTasks,
   sedSets,
   sedFilterOf,
-  sizeFitter,
   type FitRequest,
   type PositionRequest,
+  type RingArrays,
+  type RingFitArrays,
+  type RingSet,
   type SedSet,
-  type SizeFitter,
 } from "./fitBatch.js";
 import { mergeSizeSlots, runSizeTasks, sizeArrays } from "./sizeBatch.js";
 import { runPaintTasks, type PaintArrays } from "./paintBatch.js";
@@ -38,12 +41,12 @@ export interface FitRunner {
   /** Fit every request on `bank` (null where the Fisher matrix is singular), in request order. */
   fitMany(bank: FilterBank, table: ProfileTable, requests: readonly FitRequest[]): (ComponentFit | null)[];
   /**
-   * For each position, a function that fits it at any size in this thread: the positions' rings are
-   * computed here as one batch (one pass over the modes each, on the runner's threads), after which
-   * each fit costs one pass over the rings. Fits equal {@link FitRunner.fitMany}'s number for number.
-   * Each fitter holds its position's rings (8 bytes × rings × components) until it is dropped.
+   * The rings of `positions` (one pass over the modes each, as one batch on the runner's threads),
+   * from which each fit at any size costs one pass over the rings; fits equal
+   * {@link FitRunner.fitMany}'s number for number. The set holds 8 bytes × rings × components per
+   * position until it is dropped.
    */
-  sizeFitters(bank: FilterBank, table: ProfileTable, positions: readonly PositionRequest[]): SizeFitter[];
+  ringSet(bank: FilterBank, table: ProfileTable, positions: readonly PositionRequest[]): RingSet;
   /**
    * The S/N maps of a single-SED filter at every size (radians) on `bank`, folded into the best S/N
    * per pixel and the index of the size that gave it, plus each size's σ. `onMap` (given: this
@@ -80,11 +83,11 @@ export const serialFits: FitRunner = {
     runBatchTasks(bank, table, sets, a);
     return requests.map((r, i) => batchResult(a, i, r.seds.length));
   },
-  sizeFitters(bank, table, positions) {
+  ringSet(bank, table, positions) {
     const { sets, index } = cachedSedSets(bank, positions);
     const a = ringArrays(positions, index, ringStride(bank, positions), false);
     runRingTasks(bank, sets, a);
-    return fittersFrom(bank, table, sets, index, a.rings, a.stride);
+    return ringSetOf(bank, table, sets, a, positions, (f) => runRingFitTasks(bank, table, sets, f), false);
   },
   bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
     const set = cachedSedSets(bank, [{ seds: [filter.sed], sedKey: filter.sedKey, px: 0, py: 0 }]).sets[0] as SedSet;
@@ -103,9 +106,21 @@ function ringStride(bank: FilterBank, positions: readonly PositionRequest[]): nu
   return ellRings(bank).ell.length * Math.max(1, ...positions.map((p) => p.seds.length));
 }
 
-/** The fitters of a finished ring batch. */
-function fittersFrom(bank: FilterBank, table: ProfileTable, sets: readonly SedSet[], index: Int32Array, rings: Float64Array, stride: number): SizeFitter[] {
-  return Array.from(index, (k, i) => sizeFitter(bank, table, sets[k] as SedSet, rings.subarray(i * stride, (i + 1) * stride)));
+/**
+ * The {@link RingSet} of a finished ring batch `a`. `onThreads` computes a batch of fits from its
+ * rings on the runner's threads (arrays shared when `shared`) and returns when every fit is done;
+ * single fits run here.
+ */
+function ringSetOf(bank: FilterBank, table: ProfileTable, sets: readonly SedSet[], a: RingArrays, positions: readonly PositionRequest[], onThreads: (f: RingFitArrays) => void, shared: boolean): RingSet {
+  const ncMax = Math.max(1, ...positions.map((p) => p.seds.length));
+  const batch = (list: readonly { index: number; thetaRad: number }[], threads: boolean): (ComponentFit | null)[] => {
+    if (list.length === 0) return [];
+    const f = ringFitArrays(a, list, ncMax, threads && shared);
+    if (threads) onThreads(f);
+    else runRingFitTasks(bank, table, sets, f);
+    return list.map((r, i) => batchResult(f, i, (positions[r.index] as PositionRequest).seds.length));
+  };
+  return { count: positions.length, fit: (index, thetaRad) => batch([{ index, thetaRad }], false)[0] ?? null, fitMany: (list) => batch(list, true) };
 }
 
 /** Banks whose arrays the worker threads hold (oldest first dropped beyond this many). */
@@ -208,8 +223,8 @@ export function createFitPool(threads: number, options: { callerTakesTasks?: boo
       workerTasks += Atomics.load(a.control, 2);
       return requests.map((r, i) => batchResult(a, i, r.seds.length));
     },
-    sizeFitters(bank, table, positions) {
-      if (positions.length < 2 || workers.length === 0) return serialFits.sizeFitters(bank, table, positions);
+    ringSet(bank, table, positions) {
+      if (positions.length < 2 || workers.length === 0) return serialFits.ringSet(bank, table, positions);
       const { sets, index, keys } = cachedSedSets(bank, positions);
       const a = ringArrays(positions, index, ringStride(bank, positions), true);
       const id = share(bank, keys, sets);
@@ -217,7 +232,15 @@ export function createFitPool(threads: number, options: { callerTakesTasks?: boo
       if (callerTakes) runRingTasks(bank, sets, a);
       waitFor(a.control, positions.length, "ring sums");
       workerTasks += Atomics.load(a.control, 2);
-      return fittersFrom(bank, table, sets, index, a.rings, a.stride);
+      return ringSetOf(bank, table, sets, a, positions, (f) => {
+        const n = f.status.length;
+        // a single fit from rings costs a pass over the rings only: not worth waking the workers
+        const posted = n > 1 && workers.length > 0;
+        if (posted) post({ kind: "ringFits", id: share(bank, keys, sets), table: { ...table }, keys, arrays: f });
+        if (callerTakes || !posted) runRingFitTasks(bank, table, sets, f);
+        waitFor(f.control, n, "fits from rings");
+        workerTasks += Atomics.load(f.control, 2);
+      }, true);
     },
     bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap) {
       if (onMap !== undefined || workers.length === 0 || sizesRad.length < 2) return serialFits.bestOverSizes(bank, plan, table, filter, sizesRad, noise, onMap);

@@ -5,7 +5,7 @@ import type { FitBank } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
 import { getRfft2Plan } from "@umbra/maps";
 import type { WhiteNoiseModel } from "../mmf/localNoise.js";
-import { runBatchTasks, runRingTasks, sedFilterOf, type BatchArrays, type RingArrays, type SedSet } from "./fitBatch.js";
+import { runBatchTasks, runRingFitTasks, runRingTasks, sedFilterOf, type BatchArrays, type RingArrays, type RingFitArrays, type SedSet } from "./fitBatch.js";
 import { runSizeTasks, type SizeArrays } from "./sizeBatch.js";
 import { runPaintTasks, type PaintArrays } from "./paintBatch.js";
 import type { PaintedCluster } from "../photometry/model.js";
@@ -16,6 +16,7 @@ export type WorkerMessage =
   | { readonly kind: "sets"; readonly id: number; readonly sets: readonly { key: string; set: SedSet }[] }
   | { readonly kind: "batch"; readonly id: number; readonly table: ProfileTable; readonly keys: readonly string[]; readonly arrays: BatchArrays }
   | { readonly kind: "rings"; readonly id: number; readonly keys: readonly string[]; readonly arrays: RingArrays }
+  | { readonly kind: "ringFits"; readonly id: number; readonly table: ProfileTable; readonly keys: readonly string[]; readonly arrays: RingFitArrays }
   | { readonly kind: "drop"; readonly id: number }
   | { readonly kind: "noise"; readonly id: number; readonly noise: WhiteNoiseModel }
   | { readonly kind: "paint"; readonly id: number; readonly table: ProfileTable; readonly clusters: readonly PaintedCluster[]; readonly sign: number; readonly arrays: PaintArrays }
@@ -65,6 +66,11 @@ if (parentPort !== null && isUmbraWorker()) {
       const sets = m.keys.map((k) => b?.sets.get(k));
       if (b === undefined || sets.some((s) => s === undefined)) return; // cannot happen; this thread sits the batch out
       runRingTasks(b.bank, sets as SedSet[], m.arrays, true);
+    } else if (m.kind === "ringFits") {
+      const b = banks.get(m.id);
+      const sets = m.keys.map((k) => b?.sets.get(k));
+      if (b === undefined || sets.some((s) => s === undefined)) return; // cannot happen; this thread sits the batch out
+      runRingFitTasks(b.bank, m.table, sets as SedSet[], m.arrays, true);
     }
   });
 }

@@ -235,7 +235,8 @@ describe("byte swap", () => {
 
   it("swapScratch reverses every 2-, 4- and 8-byte group exactly as Node's Buffer.swap16/32/64 do, wherever the chunk sits", () => {
     // common practice, no source: Node's Buffer.swapNN is the reference byte reversal
-    for (const chunk of [scratchBytes(), scratchFor(0), scratchFor(2880), scratchFor(5760)]) {
+    // the last chunk is outside the WebAssembly memory: swapScratch falls back to Buffer.swapNN there
+    for (const chunk of [scratchBytes(), scratchFor(0), scratchFor(2880), scratchFor(5760), new Uint8Array(SWAP_CHUNK_BYTES + 64)]) {
       for (const width of [2, 4, 8] as SwapWidth[]) {
         for (const len of [0, 8, 16, 24, 64, 72, 1000, SWAP_CHUNK_BYTES - 8, SWAP_CHUNK_BYTES]) {
           const bytes = Uint8Array.from({ length: len }, (_, i) => ((i + len) * 2654435761) >>> 24);

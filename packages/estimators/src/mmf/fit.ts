@@ -99,36 +99,40 @@ export function ellRings(bank: Pick<FitBank, "ells" | "layout">): EllRings {
   const ells = bank.ells;
   let r = ringCache.get(ells);
   if (r === undefined) {
-    const byEll = new Map<number, number>();
-    const first = new Int32Array(ells.length);
-    for (let m = 0; m < ells.length; m++) {
-      const l = ells[m] as number;
-      let u = byEll.get(l);
-      if (u === undefined) {
-        u = byEll.size;
-        byEll.set(l, u);
-      }
-      first[m] = u;
-    }
-    // renumber in increasing ℓ: neighbouring modes then fall in neighbouring rings, and the sums over
-    // rings read the profile table in order
-    const ell = Float64Array.from(byEll.keys()).sort();
-    const rank = new Int32Array(ell.length);
-    ell.forEach((l, k) => {
-      rank[byEll.get(l) as number] = k;
-    });
+    // the distinct values in increasing order (a typed-array sort is numeric), then each mode's ring
+    // by binary search: several times faster than a Map keyed by the values
+    const sorted = Float64Array.from(ells).sort();
+    let nU = 0;
+    for (let i = 0; i < sorted.length; i++) if (i === 0 || sorted[i] !== sorted[i - 1]) sorted[nU++] = sorted[i] as number;
+    const ell = sorted.slice(0, nU);
     const ringOf = new Int32Array(ells.length);
-    const weight = new Float64Array(ell.length);
+    const weight = new Float64Array(nU);
     const hw = bank.layout.hermitianWeight;
     for (let m = 0; m < ells.length; m++) {
-      const u = rank[first[m] as number] as number;
-      ringOf[m] = u;
-      weight[u] += hw[m] as number;
+      const l = ells[m] as number;
+      let lo = 0;
+      let hi = nU - 1;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if ((ell[mid] as number) < l) lo = mid + 1;
+        else hi = mid;
+      }
+      ringOf[m] = lo;
+      weight[lo] += hw[m] as number;
     }
     r = { ringOf, ell, weight };
     ringCache.set(ells, r);
   }
   return r;
+}
+
+/**
+ * Tell {@link ellRings} the rings of `ells` (computed elsewhere, e.g. by the thread that posted the
+ * bank): building them costs ~0.65 s at 2048², copying them a few milliseconds.
+ */
+export function seedEllRings(ells: Float64Array, rings: EllRings): void {
+  if (rings.ringOf.length !== ells.length) throw new UmbraError("INTERNAL", `rings for ${rings.ringOf.length} modes given for ${ells.length}`);
+  ringCache.set(ells, rings);
 }
 
 const fisherRingCache = new WeakMap<Float64Array, Float64Array>();

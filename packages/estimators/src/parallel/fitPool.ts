@@ -180,7 +180,7 @@ export function createFitPool(threads: number, options: { callerTakesTasks?: boo
       ids.set(bank, id);
       entry = { id, keys: new Set() };
       live.push(entry);
-      post({ kind: "bank", id, bank: portableBank(bank) });
+      post({ kind: "bank", id, bank: portableBank(bank), rings: ellRings(bank) });
       while (live.length > KEPT_CONTEXTS) post({ kind: "drop", id: (live.shift() as { id: number }).id });
     }
     const fresh = keys.flatMap((k, q) => (entry!.keys.has(k) ? [] : [{ key: k, set: sets[q] as SedSet }]));

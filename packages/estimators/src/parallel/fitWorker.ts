@@ -1,7 +1,7 @@
 /** Worker thread of a fit pool (./fitPool.ts): keeps the banks it is sent and runs the tasks of every batch. */
 import { parentPort } from "node:worker_threads";
 import { isUmbraWorker } from "@umbra/core";
-import type { FitBank } from "../mmf/fit.js";
+import { seedEllRings, type EllRings, type FitBank } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
 import { getRfft2Plan } from "@umbra/maps";
 import type { WhiteNoiseModel } from "../mmf/localNoise.js";
@@ -12,7 +12,7 @@ import type { PaintedCluster } from "../photometry/model.js";
 
 /** What the pool posts: a bank's arrays (copied once), SED sets for it, batches (shared arrays), and drops. */
 export type WorkerMessage =
-  | { readonly kind: "bank"; readonly id: number; readonly bank: FitBank }
+  | { readonly kind: "bank"; readonly id: number; readonly bank: FitBank; readonly rings: EllRings }
   | { readonly kind: "sets"; readonly id: number; readonly sets: readonly { key: string; set: SedSet }[] }
   | { readonly kind: "batch"; readonly id: number; readonly table: ProfileTable; readonly keys: readonly string[]; readonly arrays: BatchArrays }
   | { readonly kind: "rings"; readonly id: number; readonly keys: readonly string[]; readonly arrays: RingArrays }
@@ -37,7 +37,10 @@ if (parentPort !== null && isUmbraWorker()) {
   // the latest noise model only (one search at a time)
   let noise: { id: number; model: WhiteNoiseModel } | null = null;
   parentPort.on("message", (m: WorkerMessage) => {
-    if (m.kind === "bank") banks.set(m.id, { bank: m.bank, sets: new Map() });
+    if (m.kind === "bank") {
+      seedEllRings(m.bank.ells, m.rings);
+      banks.set(m.id, { bank: m.bank, sets: new Map() });
+    }
     else if (m.kind === "drop") banks.delete(m.id);
     else if (m.kind === "noise") noise = { id: m.id, model: m.noise };
     else if (m.kind === "paint") {

@@ -6,6 +6,7 @@
  * taken by one thread: one pass over the modes for the position's rings, then one pass over the
  * rings per size (../mmf/fit.ts).
  */
+import { takeItems } from "./counter.js";
 import { UmbraError } from "@umbra/core";
 import { combineSeds, createFitScratch, fitFromRings, positionRings, sedNodeTable, type ComponentFit, type FitBank } from "../mmf/fit.js";
 import type { FilterBank } from "../mmf/bank.js";
@@ -102,12 +103,8 @@ export function batchArrays(requests: readonly FitRequest[], setIndex: Int32Arra
  * threads can run this at once) and fit each task; returns how many tasks this thread did.
  */
 export function runBatchTasks(bank: FitBank, table: ProfileTable, sets: readonly SedSet[], a: BatchArrays, inWorker = false): number {
-  const nGroups = a.groupStart.length - 1;
   const scratch = createFitScratch(bank);
-  let done = 0;
-  for (;;) {
-    const g = Atomics.add(a.control, 0, 1);
-    if (g >= nGroups) break;
+  return takeItems(a.control, a.groupStart.length - 1, inWorker, (g) => {
     const g0 = a.groupStart[g] as number;
     const g1 = a.groupStart[g + 1] as number;
     const first = a.groupTasks[g0] as number;
@@ -115,24 +112,27 @@ export function runBatchTasks(bank: FitBank, table: ProfileTable, sets: readonly
     let rings: Float64Array | null = null;
     for (let q = g0; q < g1; q++) {
       const i = a.groupTasks[q] as number;
-      let status = FIT_OK;
-      try {
+      storeFit(a, i, () => {
         rings ??= positionRings(bank, set.combined, a.tasks[4 * i + 1] as number, a.tasks[4 * i + 2] as number, scratch, scratch.rings);
         scratch.rings = rings;
-        const f = fitFromRings(bank, table, a.tasks[4 * i] as number, set.seds, rings, set.nodeTable, set.combined);
-        a.results.set(f.amplitudes, i * a.stride);
-        a.results.set(f.covariance, i * a.stride + f.amplitudes.length);
-      } catch (e) {
-        status = e instanceof UmbraError && e.code === "BAD_DATA" ? FIT_SINGULAR : FIT_FAILED;
-      }
-      Atomics.store(a.status, i, status);
+        return fitFromRings(bank, table, a.tasks[4 * i] as number, set.seds, rings, set.nodeTable, set.combined);
+      });
     }
-    if (inWorker) Atomics.add(a.control, 2, g1 - g0);
-    Atomics.add(a.control, 1, g1 - g0);
-    Atomics.notify(a.control, 1);
-    done += g1 - g0;
+    return g1 - g0;
+  });
+}
+
+/** Run one fit and store its result and status as task i of `a` (singular: FIT_SINGULAR; any other failure: FIT_FAILED). */
+function storeFit(a: Pick<BatchArrays, "status" | "results" | "stride">, i: number, fit: () => ComponentFit): void {
+  let status = FIT_OK;
+  try {
+    const f = fit();
+    a.results.set(f.amplitudes, i * a.stride);
+    a.results.set(f.covariance, i * a.stride + f.amplitudes.length);
+  } catch (e) {
+    status = e instanceof UmbraError && e.code === "BAD_DATA" ? FIT_SINGULAR : FIT_FAILED;
   }
-  return done;
+  Atomics.store(a.status, i, status);
 }
 
 /** Read task i's fit from a batch's arrays (null when singular; INTERNAL when it failed). */
@@ -174,20 +174,12 @@ export function ringArrays(positions: readonly PositionRequest[], setIndex: Int3
 
 /** Take ring tasks until none is left and compute each position's rings into its slot; returns how many this thread did. */
 export function runRingTasks(bank: FitBank, sets: readonly SedSet[], a: RingArrays, inWorker = false): number {
-  const n = a.tasks.length / 3;
   const scratch = createFitScratch(bank);
-  let done = 0;
-  for (;;) {
-    const i = Atomics.add(a.control, 0, 1);
-    if (i >= n) break;
+  return takeItems(a.control, a.tasks.length / 3, inWorker, (i) => {
     const set = sets[a.tasks[3 * i + 2] as number] as SedSet;
     positionRings(bank, set.combined, a.tasks[3 * i] as number, a.tasks[3 * i + 1] as number, scratch, a.rings.subarray(i * a.stride, (i + 1) * a.stride));
-    if (inWorker) Atomics.add(a.control, 2, 1);
-    Atomics.add(a.control, 1, 1);
-    Atomics.notify(a.control, 1);
-    done++;
-  }
-  return done;
+    return 1;
+  });
 }
 
 /** The arrays of a batch of fits from stored rings (a {@link RingArrays} batch's output), shared between threads. */
@@ -217,29 +209,13 @@ export function ringFitArrays(positions: RingArrays, list: readonly { index: num
 
 /** Take fits from stored rings until none is left (see {@link runBatchTasks}); returns how many this thread did. */
 export function runRingFitTasks(bank: FitBank, table: ProfileTable, sets: readonly SedSet[], a: RingFitArrays, inWorker = false): number {
-  const n = a.status.length;
   const p = a.positions;
-  let done = 0;
-  for (;;) {
-    const i = Atomics.add(a.control, 0, 1);
-    if (i >= n) break;
+  return takeItems(a.control, a.status.length, inWorker, (i) => {
     const k = a.tasks[2 * i] as number;
     const set = sets[p.tasks[3 * k + 2] as number] as SedSet;
-    let status = FIT_OK;
-    try {
-      const f = fitFromRings(bank, table, a.tasks[2 * i + 1] as number, set.seds, p.rings.subarray(k * p.stride, (k + 1) * p.stride), set.nodeTable, set.combined);
-      a.results.set(f.amplitudes, i * a.stride);
-      a.results.set(f.covariance, i * a.stride + f.amplitudes.length);
-    } catch (e) {
-      status = e instanceof UmbraError && e.code === "BAD_DATA" ? FIT_SINGULAR : FIT_FAILED;
-    }
-    Atomics.store(a.status, i, status);
-    if (inWorker) Atomics.add(a.control, 2, 1);
-    Atomics.add(a.control, 1, 1);
-    Atomics.notify(a.control, 1);
-    done++;
-  }
-  return done;
+    storeFit(a, i, () => fitFromRings(bank, table, a.tasks[2 * i + 1] as number, set.seds, p.rings.subarray(k * p.stride, (k + 1) * p.stride), set.nodeTable, set.combined));
+    return 1;
+  });
 }
 
 /** The rings of several positions (one batch on a fit runner) and fits from them at any sizes. */

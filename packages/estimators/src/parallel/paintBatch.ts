@@ -3,6 +3,7 @@
  * take from a shared counter; each chunk gets every cluster in list order (../photometry/model.ts
  * paintModeRange), so the result equals one thread painting all modes.
  */
+import { takeItems } from "./counter.js";
 import type { FitBank } from "../mmf/fit.js";
 import type { ProfileTable } from "../mmf/profile.js";
 import { paintModeRange, type PaintedCluster } from "../photometry/model.js";
@@ -21,15 +22,8 @@ export interface PaintArrays {
 /** Take chunks until none is left and paint `clusters` × `sign` into them; returns how many this thread did. */
 export function runPaintTasks(bank: FitBank, table: ProfileTable, clusters: readonly PaintedCluster[], sign: number, a: PaintArrays, inWorker = false): number {
   const n = bank.layout.modeCount;
-  let done = 0;
-  for (;;) {
-    const k = Atomics.add(a.control, 0, 1);
-    if (k >= a.chunks) break;
+  return takeItems(a.control, a.chunks, inWorker, (k) => {
     paintModeRange(bank, table, a.out, clusters, sign, k * a.chunk, Math.min(n, (k + 1) * a.chunk));
-    if (inWorker) Atomics.add(a.control, 2, 1);
-    Atomics.add(a.control, 1, 1);
-    Atomics.notify(a.control, 1);
-    done++;
-  }
-  return done;
+    return 1;
+  });
 }

@@ -5,6 +5,7 @@
  * a shared counter and keeps its own maximum ("slot"); the slots are merged afterwards, ties going
  * to the smaller size index, so the result is that of one thread running the sizes in order.
  */
+import { takeItems } from "./counter.js";
 import type { Rfft2Plan } from "@umbra/maps";
 import type { FitBank } from "../mmf/fit.js";
 import { filteredMap, type SedFilter } from "../mmf/filteredMap.js";
@@ -67,10 +68,7 @@ export function runSizeTasks(
   const scratch = new Float64Array(plan.layout.spectrumLength);
   const best = a.best[slot] as Float64Array;
   const arg = a.arg[slot] as Uint8Array;
-  let done = 0;
-  for (;;) {
-    const k = Atomics.add(a.control, 0, 1);
-    if (k >= sizesRad.length) break;
+  return takeItems(a.control, sizesRad.length, slot > 0, (k) => {
     a.sigmas[k] = snrMap(bank, plan, table, sizesRad[k] as number, filter, noise, map, scratch);
     for (let p = 0; p < npix; p++) {
       const s = map[p] as number;
@@ -81,12 +79,8 @@ export function runSizeTasks(
       }
     }
     onMap?.(k, map);
-    if (slot > 0) Atomics.add(a.control, 2, 1);
-    Atomics.add(a.control, 1, 1);
-    Atomics.notify(a.control, 1);
-    done++;
-  }
-  return done;
+    return 1;
+  });
 }
 
 /** Merge the slots: per pixel the largest S/N and its size index (the smaller index on ties). */

@@ -51,7 +51,7 @@ function scenario(n: number, nClusters: number): unknown {
     field: { nx: n, ny: n, pixelArcmin: 0.5, projection: "CAR", centerDeg: [120, -5], fieldId: "BENCH-MEASURE" },
     bands: BANDS,
     atmosphereCorrelation: 0.8,
-    sky: { cmb: { spectrum: "lcdm2018" }, clusters: { list, scatterLnY: 0 } },
+    sky: { cmb: { spectrum: "lcdm2018" }, clusters: { list, scatterLnY: 0, relativistic: false } },
   };
 }
 

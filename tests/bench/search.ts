@@ -20,7 +20,7 @@ function scenario(n: number): unknown {
     field: { nx: n, ny: n, pixelArcmin: 0.5, projection: "CAR", centerDeg: [120, -5], fieldId: "BENCH-SEARCH" },
     bands: [band("f030", 30, 7, 60), band("f090", 90, 2.2, 15, 1000), band("f150", 150, 1.4, 15, 1500), band("f220", 220, 1.0, 40, 2500), band("f280", 280, 0.9, 80), band("f350", 350, 0.8, 250)],
     atmosphereCorrelation: 0.8,
-    sky: { cmb: { spectrum: "lcdm2018" }, clusters: { massFunction: { mMinMsun: 3e14, mMaxMsun: 3e15, zMin: 0.05, zMax: 1.5 }, scatterLnY: 0.2 } },
+    sky: { cmb: { spectrum: "lcdm2018" }, clusters: { massFunction: { mMinMsun: 3e14, mMaxMsun: 3e15, zMin: 0.05, zMax: 1.5 }, scatterLnY: 0.2, relativistic: false } },
   };
 }
 

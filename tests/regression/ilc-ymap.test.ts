@@ -40,7 +40,7 @@ function scenario(withClusters: boolean, noise: boolean): unknown {
     bands: [band("b090", 90, 2.2, 18), band("b150", 150, 1.4, 12), band("b220", 220, 1.0, 30), band("b280", 280, 0.9, 60), band("b350", 350, 0.8, 150)],
     sky: {
       cmb: { spectrum: "lcdm2018" },
-      ...(withClusters ? { clusters: { list: clusters, scatterLnY: 0 } } : {}),
+      ...(withClusters ? { clusters: { list: clusters, scatterLnY: 0, relativistic: false } } : {}),
       ...(noise ? { dust: { refFrequencyGHz: 353, dellAt3000UK2: 80, ellIndex: -1.2, beta: 1.6, temperatureK: 20, bandCorrelation: 0.98 } } : {}),
     },
   };

@@ -33,7 +33,7 @@ function scenario(): unknown {
       { name: "f150", frequencyGHz: 150, beamFwhmArcmin: 1.4, unit: "uK_CMB", noiseUKArcmin: 8 },
       { name: "f220", frequencyGHz: 220, beamFwhmArcmin: 1.0, unit: "uK_CMB", noiseUKArcmin: 25 },
     ],
-    sky: { cmb: { spectrum: "lcdm2018" }, clusters: { list, scatterLnY: 0 } },
+    sky: { cmb: { spectrum: "lcdm2018" }, clusters: { list, scatterLnY: 0, relativistic: false } },
   };
 }
 

@@ -36,7 +36,14 @@ describe("umbra simulate", () => {
     const manifest = JSON.parse(readFileSync(join(outDir, "bands.json"), "utf8"));
     expect(manifest.bands[1]).toMatchObject({ name: "f150", map: "f150.fits", bandpass: "f150_bandpass.txt", unit: "K_RJ", ivar: "f150_ivar.fits" });
     expect(readFileSync(join(outDir, "truth_clusters.csv"), "utf8").split("\n")[1]).toMatch(/^CLI-C1,10,-10,/);
-    // a non-relativistic sky with a truth catalogue that carries temperatures: the user is told how to measure it
+    // relativistic tSZ by default: measuring with the truth catalogue's te_kev is consistent, no note
+    expect(io.err).not.toMatch(/painted non-relativistic/);
+  });
+  it("tells how to measure a sky painted non-relativistic", async () => {
+    const flat = { ...scenario, sky: { ...scenario.sky, clusters: { ...scenario.sky.clusters, relativistic: false } } };
+    writeFileSync(join(dir, "scenario-nonrel.json"), JSON.stringify(flat));
+    expect(await run(["simulate", "--scenario", join(dir, "scenario-nonrel.json"), "--seed", "5", "--out", join(dir, "nonrel")])).toBe(0);
+    // the truth catalogue carries temperatures: the user is told to measure without the relativistic spectrum
     expect(io.err).toMatch(/painted non-relativistic.*--no-relativistic/);
   });
   it("is reproducible: the same seed twice gives identical files", async () => {

@@ -147,7 +147,9 @@ describe("clusters", () => {
     ]);
     const f = simulateField(s, 1);
     const c = f.clusters[0]!;
-    const resp = componentResponse({ kind: "tsz" }, { frequencyGHz: 150 }, "K_CMB");
+    // painted with the relativistic spectrum at the cluster's kTe (the default)
+    expect(f.scenario.sky.clusters?.relativistic).toBe(true);
+    const resp = componentResponse({ kind: "tsz", kTeKeV: c.kTeKeV }, { frequencyGHz: 150 }, "K_CMB");
     let sum = 0;
     for (const x of f.bands[0]!.map) sum += x;
     const yArcmin2 = ((sum / resp) * (RAD_PER_ARCMIN * RAD_PER_ARCMIN) * ARCMIN2_PER_SR);
@@ -168,7 +170,7 @@ describe("clusters", () => {
     ]);
     const f = simulateField(s, 1);
     const c = f.clusters[0]!;
-    const resp = componentResponse({ kind: "tsz" }, { frequencyGHz: 150 }, "K_CMB");
+    const resp = componentResponse({ kind: "tsz", kTeKeV: c.kTeKeV }, { frequencyGHz: 150 }, "K_CMB");
     const cosmo = cosmologyPreset("cmb2018");
     const profile = gnfwA10({ m500Msun: c.m500Msun, h70: cosmo.h70 });
     const scale = clusterScale(c.m500Msun, c.z, cosmo);
@@ -216,7 +218,8 @@ describe("clusters", () => {
   it("adds kSZ with the sign of ΔT/T0 = −τ v/c (a receding cluster is a cold spot at the tSZ null)", () => {
     const list = [{ id: "K", raDeg: 40, decDeg: -20, m500Msun: 6e14, z: 0.3, vLosKmS: 1000 }];
     const bands = [{ name: "n", frequencyGHz: 217.5, beamFwhmArcmin: 1, unit: "K_CMB", noiseUKArcmin: 0 }];
-    const f = simulateField(scenario({}, { clusters: { list, scatterLnY: 0 } }, bands), 1);
+    // non-relativistic tSZ, so that 217.5 GHz is its null
+    const f = simulateField(scenario({}, { clusters: { list, scatterLnY: 0, relativistic: false } }, bands), 1);
     const c = f.clusters[0]!;
     let sum = 0;
     for (const x of f.bands[0]!.map) sum += x;

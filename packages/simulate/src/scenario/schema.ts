@@ -88,8 +88,11 @@ const clusterSchema = z
     scatterLnY: nonNegative.max(2).default(0.2),
     /** Log-normal scatter of kTe at fixed mass, σ_lnT. */
     scatterLnT: nonNegative.max(2).default(0.1),
-    /** Paint relativistic tSZ (kTe-dependent) instead of the non-relativistic spectrum. */
-    relativistic: z.boolean().default(false),
+    /**
+     * Paint the relativistic tSZ spectrum at each cluster's kTe (the default, as real clusters are);
+     * false paints the non-relativistic spectrum (then measure with `--no-relativistic`).
+     */
+    relativistic: z.boolean().default(true),
     /** Peculiar velocities for kSZ: Gaussian with this σ in km/s; 0 switches kSZ off. */
     velocitySigmaKmS: nonNegative.max(3000).default(0),
     /** Keep clusters at least this far from the field edge (in units of θ500; mass-function draws only). */
